@@ -1,0 +1,44 @@
+import type { H3Event } from 'h3'
+import type { z } from 'zod'
+
+/** Turns zod issues into a 400 whose message names each field, e.g. "email: Enter a valid e-mail address". */
+export function badRequest(issues: z.core.$ZodIssue[], where: string) {
+  const fields: Record<string, string> = {}
+  for (const issue of issues) {
+    const path = issue.path.map(String).join('.') || where
+    fields[path] ??= issue.code === 'unrecognized_keys'
+      ? `Unknown field${issue.keys.length > 1 ? 's' : ''}: ${issue.keys.join(', ')}`
+      : issue.message
+  }
+  const message = Object.entries(fields).map(([field, text]) => `${field}: ${text}`).join('; ')
+  return createError({ statusCode: 400, statusMessage: 'Bad Request', message, data: { fields } })
+}
+
+function parseWith<S extends z.ZodType>(schema: S, value: unknown, where: string): z.infer<S> {
+  const result = schema.safeParse(value)
+  if (!result.success) throw badRequest(result.error.issues, where)
+  return result.data
+}
+
+export async function validBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  if (!type.toLowerCase().startsWith('application/json')) {
+    throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'body: send JSON with Content-Type: application/json' })
+  }
+  let body: unknown
+  try {
+    body = await readBody(event)
+  }
+  catch {
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'body: not valid JSON' })
+  }
+  return parseWith(schema, body ?? {}, 'body')
+}
+
+export function validParams<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
+  return parseWith(schema, getRouterParams(event, { decode: true }), 'params')
+}
+
+export function validQuery<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
+  return parseWith(schema, getQuery(event), 'query')
+}

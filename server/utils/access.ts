@@ -4,11 +4,14 @@ import type { Role } from '#shared/utils/roles'
 
 /** The signed-in user, re-read from the database so that a removed account loses access at once. */
 export async function requireUser(event: H3Event) {
-  const session = await requireUserSession(event, { message: 'Sign in first' })
-  const [user] = await useDb().select({ id: schema.users.id, email: schema.users.email, name: schema.users.name })
-    .from(schema.users).where(eq(schema.users.id, session.user.id))
+  const session = await getUserSession(event)
+  const id = session.user?.id
+  const [user] = typeof id === 'number'
+    ? await useDb().select({ id: schema.users.id, email: schema.users.email, name: schema.users.name })
+        .from(schema.users).where(eq(schema.users.id, id))
+    : []
   if (!user) {
-    await clearUserSession(event)
+    if (id !== undefined) await clearUserSession(event)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first' })
   }
   return user

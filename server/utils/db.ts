@@ -20,3 +20,9 @@ export function useDb() {
 }
 
 export type Db = ReturnType<typeof useDb>
+
+/** True for PostgreSQL's unique_violation, also when Drizzle wraps the driver's error. */
+export function isUniqueViolation(err: unknown): boolean {
+  const codeOf = (e: unknown) => (typeof e === 'object' && e !== null && 'code' in e ? (e as { code: unknown }).code : undefined)
+  return codeOf(err) === '23505' || (typeof err === 'object' && err !== null && 'cause' in err && codeOf((err as { cause: unknown }).cause) === '23505')
+}

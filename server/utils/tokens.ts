@@ -12,3 +12,4 @@ export function hashToken(token: string): string {
 
 export const INVITATION_TTL_MS = 7 * 24 * 3600 * 1000
 export const RESET_TTL_MS = 60 * 60 * 1000
+export const MAX_RESETS_PER_WINDOW = 3

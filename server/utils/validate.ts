@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import type { z } from 'zod'
 
 /** Turns zod issues into a 400 whose message names each field, e.g. "email: Enter a valid e-mail address". */
-export function badRequest(issues: z.core.$ZodIssue[], where: string) {
+export function badRequest(issues: readonly z.core.$ZodIssue[], where: string) {
   const fields: Record<string, string> = {}
   for (const issue of issues) {
     const path = issue.path.map(String).join('.') || where
@@ -10,8 +10,17 @@ export function badRequest(issues: z.core.$ZodIssue[], where: string) {
       ? `Unknown field${issue.keys.length > 1 ? 's' : ''}: ${issue.keys.join(', ')}`
       : issue.message
   }
+  return fieldsError(400, fields)
+}
+
+/** An error about named fields, in the same shape as a validation failure. */
+export function fieldError(status: 400 | 409, field: string, text: string) {
+  return fieldsError(status, { [field]: text })
+}
+
+function fieldsError(statusCode: number, fields: Record<string, string>) {
   const message = Object.entries(fields).map(([field, text]) => `${field}: ${text}`).join('; ')
-  return createError({ statusCode: 400, statusMessage: 'Bad Request', message, data: { fields } })
+  return createError({ statusCode, statusMessage: statusCode === 409 ? 'Conflict' : 'Bad Request', message, data: { fields } })
 }
 
 function parseWith<S extends z.ZodType>(schema: S, value: unknown, where: string): z.infer<S> {

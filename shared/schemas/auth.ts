@@ -1,6 +1,8 @@
 import { z } from 'zod'
 
-export const emailSchema = z.email({ error: 'Enter a valid e-mail address' }).trim().toLowerCase().max(254)
+// Trimmed and lower-cased before the format check, so pasted addresses with spaces still pass.
+export const emailSchema = z.string({ error: 'Enter your e-mail address' }).trim().toLowerCase()
+  .pipe(z.email({ error: 'Enter a valid e-mail address' }).max(254, { error: 'Use at most 254 characters' }))
 
 export const passwordSchema = z.string({ error: 'Enter a password' })
   .min(10, { error: 'Use at least 10 characters' })

@@ -9,6 +9,8 @@ export interface DemoClub {
   about: string
   primaryColor: string
   secondaryColor: string
+  /** A PNG beside this file, uploaded to object storage as the club's logo. */
+  logoFile?: string
   members: DemoMember[]
 }
 
@@ -20,6 +22,7 @@ export const demoClubs: DemoClub[] = [
     about: 'A harbour-town club for sword and buckler and the longsword. We train twice a week in the old net loft and host the Wrenmouth Harvest Open every autumn.',
     primaryColor: '#1f3a4d',
     secondaryColor: '#d9ad4f',
+    logoFile: 'saltmarsh-crest.png',
     members: [
       { email: 'admin@saltmarsh.example', name: 'Maren Holt', password: 'saltmarsh-admin', roles: ['admin'] },
       { email: 'organizer@saltmarsh.example', name: 'Tobias Quayle', password: 'saltmarsh-organizer', roles: ['organizer'] },

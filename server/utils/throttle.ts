@@ -19,7 +19,7 @@ export async function assertSignInAllowed(event: H3Event, email: string) {
   const [byAccount] = await db.select({ n: count() }).from(t).where(and(eq(t.email, email), gt(t.failedAt, since)))
   const [byAddress] = await db.select({ n: count() }).from(t).where(and(eq(t.ip, ip), gt(t.failedAt, since)))
   if ((byAccount?.n ?? 0) >= MAX_FAILURES_PER_ACCOUNT || (byAddress?.n ?? 0) >= MAX_FAILURES_PER_ADDRESS) {
-    setResponseHeader(event, 'retry-after', String(SIGN_IN_WINDOW_MS / 1000))
+    setResponseHeader(event, 'retry-after', SIGN_IN_WINDOW_MS / 1000)
     throw createError({
       statusCode: 429,
       statusMessage: 'Too Many Requests',

@@ -10,7 +10,8 @@ test('an admin invites a new member, who follows the e-mailed link, sets a passw
   await form.getByLabel('Editor').check()
   await form.getByLabel('Streamer').check()
   await form.getByRole('button', { name: 'Send invitation' }).click()
-  await expect(page.getByText(email)).toBeVisible()
+  await expect(page.getByRole('status').filter({ hasText: `Invitation sent to ${email}` })).toBeVisible()
+  await expect(page.getByText(email, { exact: true })).toBeVisible()
 
   const mail = await waitForMail(email)
   const link = /https?:\/\/\S+\/invite\/[A-Za-z0-9_-]+/.exec(mail.text)?.[0]

@@ -1,0 +1,61 @@
+import { existsSync } from 'node:fs'
+import { SERVER_ENTRY } from './build.mjs'
+import { waitForHttp, waitForPort, assertPortFree } from './net.mjs'
+import { fromRoot, localBin } from './paths.mjs'
+import { run } from './proc.mjs'
+import { info, warn } from './ui.mjs'
+
+export const PROFILES = {
+  start: { pgName: 'pg', pgPort: 54329, database: 'unscathed', appPort: 3000, s3Port: 4568, s3Dir: '.data/s3', smtpPort: 2525, inboxPort: 2580 },
+  test: { pgName: 'pg-test', pgPort: 54339, database: 'unscathed_test', appPort: 3100, s3Port: 4578, s3Dir: '.data/s3-test', smtpPort: 2535, inboxPort: 2590 },
+}
+
+const MIGRATIONS_JOURNAL = 'server/database/migrations/meta/_journal.json'
+const SEED = 'server/database/seed/run.ts'
+
+export async function migrate(databaseUrl, record) {
+  if (!existsSync(fromRoot(MIGRATIONS_JOURNAL))) {
+    warn(`no migrations yet (${MIGRATIONS_JOURNAL} is missing): skipped`)
+    record.status = 'no migrations'
+    return
+  }
+  await run(localBin('drizzle-kit'), ['migrate'], { env: { ...process.env, NUXT_DATABASE_URL: databaseUrl } })
+}
+
+/** Runs the idempotent seed with the app's settings (it uploads to S3); returns the lines it printed. */
+export async function seed(env, record) {
+  if (!existsSync(fromRoot(SEED))) {
+    warn(`no seed yet (${SEED} is missing): skipped`)
+    record.status = 'no seed'
+    return []
+  }
+  const { stdout } = await run(localBin('tsx'), [SEED], { env, tee: true })
+  return stdout.split('\n').map(line => line.trimEnd()).filter(Boolean)
+}
+
+/** Starts `fakes/run.mjs` with the named fakes and waits until each one answers. */
+export async function startFakes(supervisor, names, env) {
+  if (names.length === 0) return
+  if (names.includes('s3')) await assertPortFree(Number(env.FAKE_S3_PORT), 'the fake S3')
+  if (names.includes('mail')) {
+    await assertPortFree(Number(env.FAKE_SMTP_PORT), 'the fake SMTP server')
+    await assertPortFree(Number(env.FAKE_INBOX_PORT), 'the fake inbox')
+  }
+  const service = supervisor.service('fakes', process.execPath, [fromRoot('fakes', 'run.mjs'), ...names], { env })
+  if (names.includes('s3')) await waitForHttp(`http://127.0.0.1:${env.FAKE_S3_PORT}/`, { what: 'the fake S3', timeoutMs: 15_000, service })
+  if (names.includes('mail')) {
+    await waitForPort(Number(env.FAKE_SMTP_PORT), { what: 'the fake SMTP server', timeoutMs: 15_000, service })
+    await waitForHttp(`http://127.0.0.1:${env.FAKE_INBOX_PORT}/messages`, { what: 'the fake inbox', timeoutMs: 15_000, service })
+  }
+}
+
+/** Starts the built app and waits until GET / answers. */
+export async function startApp(supervisor, env) {
+  await assertPortFree(Number(env.PORT), 'the app')
+  const service = supervisor.service('app', process.execPath, [SERVER_ENTRY], { env })
+  const url = `http://127.0.0.1:${env.PORT}`
+  const status = await waitForHttp(`${url}/`, { what: 'the app', timeoutMs: 60_000, service })
+  if (status >= 500) warn(`the app answers GET / with ${status}`)
+  else info(`the app answers GET / with ${status}`)
+  return url
+}

@@ -117,7 +117,8 @@ async function main() {
 
   console.log(`\n${bold('Unscathed is running')} ${dim(`(ready in ${seconds(elapsed())})`)}`)
   console.log(`  ${bold(url)}`)
-  if (config.names.includes('mail')) console.log(`  mail the app sends: ${config.inboxUrl}/messages`)
+  console.log(`  club site: ${url}/site/saltmarsh-sword-guild`)
+  if (config.names.includes('mail')) console.log(`  mail the app sends: ${url}/dev/inbox (signed in as an admin), or ${config.inboxUrl}/messages`)
   if (signIns.length) {
     console.log()
     for (const line of signIns) console.log(`  ${line}`)

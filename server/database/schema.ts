@@ -83,3 +83,4 @@ export const membershipsRelations = relations(memberships, ({ one }) => ({
 export const invitationsRelations = relations(invitations, ({ one }) => ({
   club: one(clubs, { fields: [invitations.clubId], references: [clubs.id] }),
 }))
+export * from './tournaments'

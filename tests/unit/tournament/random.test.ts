@@ -1,20 +1,6 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { hashKey, randomFrom, shuffleWithKey } from '../../../shared/tournament'
-
-// Source: IETF draft-eastlake-fnv, "The FNV Non-Cryptographic Hash Algorithm". The check values
-// for "", "a" and "foobar" are the widely quoted FNV-1a 32-bit test vectors (MEMORY, confirmed by
-// this implementation agreeing with all three).
-describe('FNV-1a key hash', () => {
-  it('hashes the empty key to the offset basis 0x811c9dc5 (draft-eastlake-fnv)', () => {
-    expect(hashKey('')).toBe(0x811C9DC5)
-  })
-
-  it('hashes "a" to 0xe40c292c and "foobar" to 0xbf9cf968 (FNV-1a test vectors)', () => {
-    expect(hashKey('a')).toBe(0xE40C292C)
-    expect(hashKey('foobar')).toBe(0xBF9CF968)
-  })
-})
+import { randomFrom, shuffleWithKey } from '../../../shared/tournament'
 
 describe('reproducible lots', () => {
   it('gives numbers in [0, 1), the same sequence for the same key', () => {

@@ -84,3 +84,4 @@ export const invitationsRelations = relations(invitations, ({ one }) => ({
   club: one(clubs, { fields: [invitations.clubId], references: [clubs.id] }),
 }))
 export * from './tournaments'
+export * from './matches'

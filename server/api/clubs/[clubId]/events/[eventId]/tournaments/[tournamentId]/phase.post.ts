@@ -34,6 +34,8 @@ export default defineEventHandler(async (event) => {
     if (to === 'finals' && fighters < 2) {
       throw fieldError(409, 'to', 'The finals need at least 2 fighters still in the tournament')
     }
+    // The bracket is built in this transaction, from the overall ranking of the pools.
+    if (to === 'finals') await startFinals(tx, tournament)
     await tx.update(schema.tournaments).set(change).where(eq(schema.tournaments.id, tournament.id))
   })
   return tournamentDetail(db, ids)

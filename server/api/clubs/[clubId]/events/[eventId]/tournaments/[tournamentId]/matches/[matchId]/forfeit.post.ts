@@ -1,0 +1,42 @@
+import { eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { SIDES, deriveMatch, otherSide } from '#shared/rules'
+import { tidySpaces } from '#shared/schemas/tournament'
+
+const forfeitSchema = z.object({
+  side: z.enum(SIDES, { error: 'Choose the side that forfeits: a or b' }),
+  reason: z.string({ error: 'Give a reason, e.g. withdrawn after an injury' }).transform(tidySpaces)
+    .pipe(z.string().min(1, { error: 'Give a reason, e.g. withdrawn after an injury' }).max(300, { error: 'Use at most 300 characters' })),
+}).strict()
+
+// The side named forfeits and the other wins, e.g. for a withdrawn or expelled fighter. The log
+// keeps whatever was recorded. A final match that ended level (a draw or a double-out) is settled
+// the same way, by the director's decision, so that the bracket can go on.
+export default defineEventHandler(async (event) => {
+  const ids = validParams(event, matchParams)
+  await requireClubRole(event, ids.clubId, ['organizer'])
+  const { side, reason } = await validBody(event, forfeitSchema)
+  return useDb().transaction(async (tx) => {
+    const { tournament } = await shareTournament(tx, ids)
+    const match = await findMatch(tx, tournament.id, ids.matchId, { lock: true })
+    requireMatchPhase(tournament, match, 'recording a forfeit')
+    requireBothSides(match)
+    if (match.status === 'forfeit') throw conflictError(`Side ${match.forfeitedBy} has already forfeited this match`)
+    const log = (await matchLogs(tx, [match.id])).get(match.id)!
+    const before = deriveMatch(rulesOf(tournament), payloads(log))
+    const level = before.finished && (before.result === 'draw' || before.result === 'both-lose')
+    if (match.status === 'finished' && !(match.stage === 'final' && level)) {
+      throw conflictError('The match is finished and its result stands')
+    }
+    const now = new Date()
+    const [updated] = await tx.update(schema.matches).set({
+      status: 'forfeit',
+      forfeitedBy: side,
+      forfeitReason: reason,
+      version: match.version + 1,
+      finishedAt: now,
+    }).where(eq(schema.matches.id, match.id)).returning()
+    if (match.stage === 'final') await advanceFinal(tx, tournament.id, updated!, otherSide(side))
+    return { match: matchSummary(updated!, await fighterRefs(tx, tournament.id), before), state: before }
+  })
+})

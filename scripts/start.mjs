@@ -3,7 +3,7 @@ import { ensureBuild } from './lib/build.mjs'
 import { checkNode, ensureDebianPackages, ensureNodeModules } from './lib/deps.mjs'
 import { loadDotEnv, sessionPassword } from './lib/env.mjs'
 import { cluster, databaseUrl as localDatabaseUrl } from './lib/postgres.mjs'
-import { PROFILES, migrate, seed, startApp, startFakes } from './lib/services.mjs'
+import { PROFILES, migrate, seed, seedDemoEvent, startApp, startFakes } from './lib/services.mjs'
 import { acquireLock, createSupervisor } from './lib/supervisor.mjs'
 import { Failure, bold, createTimeline, describeError, dim, fail, info, seconds } from './lib/ui.mjs'
 
@@ -114,6 +114,8 @@ async function main() {
   guard()
   const url = await step('app', () => startApp(supervisor, env))
   guard()
+  const eventLines = await step('demo event', () => seedDemoEvent(env, url))
+  guard()
 
   console.log(`\n${bold('Unscathed is running')} ${dim(`(ready in ${seconds(elapsed())})`)}`)
   console.log(`  ${bold(url)}`)
@@ -123,6 +125,7 @@ async function main() {
     console.log()
     for (const line of signIns) console.log(`  ${line}`)
   }
+  for (const line of eventLines) console.log(`  ${line}`)
   console.log(`\n  ${bold('Ctrl-C stops everything')}\n`)
 
   const why = await supervisor.ended

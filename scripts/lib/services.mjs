@@ -12,6 +12,7 @@ export const PROFILES = {
 
 const MIGRATIONS_JOURNAL = 'server/database/migrations/meta/_journal.json'
 const SEED = 'server/database/seed/run.ts'
+const DEMO_EVENT = 'server/database/seed/demo-event.ts'
 
 export async function migrate(databaseUrl, record) {
   if (!existsSync(fromRoot(MIGRATIONS_JOURNAL))) {
@@ -30,6 +31,12 @@ export async function seed(env, record) {
     return []
   }
   const { stdout } = await run(localBin('tsx'), [SEED], { env, tee: true })
+  return stdout.split('\n').map(line => line.trimEnd()).filter(Boolean)
+}
+
+/** Loads the demo event through the running app's API (idempotent); returns the lines it printed. */
+export async function seedDemoEvent(env, url) {
+  const { stdout } = await run(localBin('tsx'), [DEMO_EVENT], { env: { ...env, DEMO_APP_URL: url }, tee: true })
   return stdout.split('\n').map(line => line.trimEnd()).filter(Boolean)
 }
 

@@ -5,7 +5,7 @@ import {
 import type { MatchEntry, Side } from '../../shared/rules'
 import type { Bracket } from '../../shared/tournament'
 import { entries, tournaments } from './tournaments'
-import { users } from './schema'
+import { users } from './accounts'
 
 export const MATCH_STAGES = ['pool', 'final'] as const
 export const MATCH_STATUSES = ['scheduled', 'under-way', 'finished', 'forfeit'] as const

@@ -4,12 +4,8 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { RuleSet } from '../../shared/rules'
 import { ENTRY_STATUSES, TOURNAMENT_PHASES } from '../../shared/schemas/tournament'
-import { clubs, users } from './schema'
-
-const timestamps = {
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow().$onUpdate(() => new Date()),
-}
+import { clubs, users } from './accounts'
+import { timestamps } from './columns'
 
 export const tournamentPhase = pgEnum('tournament_phase', TOURNAMENT_PHASES)
 export const entryStatus = pgEnum('entry_status', ENTRY_STATUSES)

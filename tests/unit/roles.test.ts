@@ -17,13 +17,13 @@ describe('roles', () => {
     expect(labels(['scorekeeper'])).toEqual(['Overview', 'Ring desk'])
     expect(labels(['streamer'])).toEqual(['Overview', 'Cue desk'])
     expect(labels(['admin'])).toEqual(['Overview', 'Club profile', 'Members'])
-    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Cards'])
+    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Rule sets', 'Cards'])
   })
 
   it('gives a member with every role every area once', () => {
     const items = clubNavigation('x', [...ROLES])
     expect(new Set(items.map(i => i.to)).size).toBe(items.length)
-    expect(items).toHaveLength(8)
+    expect(items).toHaveLength(9)
   })
 
   it('gives a non-member no navigation at all', () => {

@@ -1,0 +1,219 @@
+import type { TournamentPhase } from '#shared/schemas/tournament'
+import type { Bracket, BracketPlaces } from '#shared/tournament'
+
+// Pools, standings and the bracket of a tournament (routes under …/tournaments/:tournamentId).
+
+export type MatchStage = 'pool' | 'final'
+export type MatchStatus = 'scheduled' | 'under-way' | 'finished' | 'forfeit'
+
+export interface MatchSide {
+  entryId: number
+  fighterId?: number
+  name: string
+  clubName: string
+}
+
+export interface MatchSummary {
+  id: number
+  poolId: number | null
+  stage: MatchStage
+  bracketKey: string | null
+  order: number | null
+  sideA: MatchSide | null
+  sideB: MatchSide | null
+  status: MatchStatus
+  version?: number
+  score: { a: number, b: number }
+  bouts: { counted: number, void: number }
+  winner: 'a' | 'b' | 'draw' | null
+  finishedReason: string | null
+  forfeit?: { side: 'a' | 'b', reason: string | null } | null
+}
+
+export interface PoolFighterView {
+  entryId: number
+  fighterId?: number
+  name: string
+  clubName: string
+  seed?: number | null
+  position: number
+  status: TournamentEntryStatus
+}
+
+/** A pool; `id` is null in a draw's preview, before anything is stored. */
+export interface PoolView {
+  id: number | null
+  number: number
+  ringNumber: number
+  fighters: PoolFighterView[]
+  matches: MatchSummary[]
+}
+
+/** A club clash the draw could not avoid, with the fighters' names. */
+export interface DrawNote {
+  kind: string
+  poolNumber: number
+  clubName: string
+  fighters: string[]
+  message: string
+}
+
+export interface DrawResponse {
+  pools: PoolView[]
+  notes: DrawNote[]
+  drawKey: string
+  dryRun: boolean
+}
+
+export interface MoveResponse {
+  pools: PoolView[]
+  warnings: { kind: string, message: string }[]
+}
+
+export interface StandingFighter {
+  entryId: number
+  fighterId?: number
+  name: string
+  clubName: string
+  seed?: number | null
+}
+
+export interface StandingRowView {
+  rank: number
+  fighter: StandingFighter
+  status: 'active' | 'withdrawn' | 'expelled'
+  matchesFought: number
+  wins: number
+  losses: number
+  draws: number
+  boutsFought: number
+  unharmed: number
+  survivalRate: number | null
+  scored: number
+  received: number
+  indicator: number
+  doubles: number
+  separatedBy?: string | null
+}
+
+export interface LotView {
+  seed: string | null
+  provisional: boolean
+  draws: { entryIds: number[], order: number[] }[]
+}
+
+export type CutStatusView = 'secured' | 'reachable' | 'out'
+
+export interface FighterOutlookView {
+  rank: number
+  fighter: StandingFighter
+  active: boolean
+  status: CutStatusView
+  remainingMatches: number
+  remainingBouts: number | null
+  survival: { status: CutStatusView, need: number | null } | null
+}
+
+export interface PoolStandingsView {
+  poolId: number
+  number: number
+  complete: boolean
+  rows: StandingRowView[]
+  lot?: LotView
+}
+
+export interface StandingsResponse {
+  pools: PoolStandingsView[]
+  overall: { complete: boolean, pendingMatches?: number, rows: StandingRowView[], lot?: LotView } | null
+  qualification?: { topN: number | null, minSurvivalRate: number | null, complete: boolean, fighters: FighterOutlookView[] } | null
+  cut: { topN: number | null, minSurvivalRate: number | null }
+}
+
+export interface BracketResponse {
+  bracket: Bracket | null
+  places: BracketPlaces | null
+  matches: MatchSummary[]
+}
+
+// ——— the club site ———
+
+export interface PublicEventSummary {
+  name: string
+  slug: string
+  startsOn: string
+  endsOn: string
+  venue: string
+  rings: number
+}
+
+export interface PublicEventView {
+  club: PublicClub
+  event: PublicEventSummary & { safety: { emergencyNumber: string, firstAidPoint: string } }
+  tournaments: { id: number, name: string, weapon: string, phase: TournamentPhase, entries: number }[]
+}
+
+export interface PublicTournamentView {
+  event: PublicEventSummary
+  tournament: { id: number, name: string, weapon: string, phase: TournamentPhase }
+  pools: PoolView[]
+  standings: {
+    pools: PoolStandingsView[]
+    overall: { complete: boolean, rows: StandingRowView[] } | null
+    cut: { topN: number | null, minSurvivalRate: number | null }
+  } | null
+  bracket: { state: Bracket, places: BracketPlaces | null, matches: MatchSummary[] } | null
+}
+
+export function usePools(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
+  return useFetch<{ pools: PoolView[] }>(() => `${toValue(base)}/pools`, {
+    key: () => `pools-${toValue(key)}`,
+  })
+}
+
+export function useStandings(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
+  return useFetch<StandingsResponse>(() => `${toValue(base)}/standings`, {
+    key: () => `standings-${toValue(key)}`,
+  })
+}
+
+export function useBracket(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
+  return useFetch<BracketResponse>(() => `${toValue(base)}/bracket`, {
+    key: () => `bracket-${toValue(key)}`,
+  })
+}
+
+/** "62.5%" for 0.625; a dash before the first bout. */
+export function percent(rate: number | null | undefined): string {
+  if (rate === null || rate === undefined || Number.isNaN(rate)) return '–'
+  return `${Number((rate * 100).toFixed(1))}%`
+}
+
+export function signed(n: number): string {
+  return n > 0 ? `+${n}` : n < 0 ? `−${Math.abs(n)}` : '0'
+}
+
+/** A fighter's place against the cut: the outlook's status, or why they are out of the table. */
+export type StandingMark = CutStatusView | 'withdrawn' | 'expelled'
+
+export const STANDING_MARK_NAMES: Record<StandingMark, string> = {
+  secured: 'Qualified',
+  reachable: 'Can still qualify',
+  out: 'Out',
+  withdrawn: 'Withdrawn',
+  expelled: 'Expelled',
+}
+
+export const STANDING_MARK_TONES: Record<StandingMark, string> = {
+  secured: 'bg-moss-100 text-moss-700',
+  reachable: 'bg-brass-100 text-brass-800',
+  out: 'bg-ink-100 text-ink-600',
+  withdrawn: 'bg-rust-100 text-rust-700',
+  expelled: 'bg-rust-100 text-rust-700',
+}
+
+export const MATCH_STATUS_NAMES: Record<MatchStatus, string> = {
+  'scheduled': 'To fence',
+  'under-way': 'Under way',
+  'finished': 'Finished',
+  'forfeit': 'Forfeit',
+}

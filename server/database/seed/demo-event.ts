@@ -61,7 +61,7 @@ function exchange(next: () => number, skillA: number, skillB: number, id: string
   return { kind: 'clean', id, side, ...hitFrom(next) }
 }
 
-interface MatchSummary { id: number, status: string, version: number, sideA: { name: string } | null, sideB: { name: string } | null }
+interface MatchSummary { id: number, poolId: number | null, status: string, version: number, sideA: { name: string } | null, sideB: { name: string } | null }
 interface MatchDetail { match: MatchSummary, state: { finished: boolean } }
 
 async function fight(base: string, match: MatchSummary, format: 'first-hit' | 'points') {
@@ -116,7 +116,10 @@ async function main() {
     await api('POST', `${base}/phase`, { to: 'pools' })
     await api('POST', `${base}/pools/draw`, { drawKey: `harvest-open-2026-${t.weapon}` })
     const { matches } = await api<{ matches: MatchSummary[] }>('GET', `${base}/matches?stage=pool`)
-    const toFight = matches.slice(0, Math.round(matches.length * t.share))
+    // The same share of every pool, as when all rings fence at once.
+    const pools = new Map<number | null, MatchSummary[]>()
+    for (const m of matches) pools.set(m.poolId, [...(pools.get(m.poolId) ?? []), m])
+    const toFight = [...pools.values()].flatMap(list => list.slice(0, Math.round(list.length * t.share)))
     for (const match of toFight) await fight(base, match, t.format)
     if (t.share === 1) await api('POST', `${base}/phase`, { to: 'finals' })
     console.log(`demo event: ${t.name}: ${entries.length} fighters, ${toFight.length} of ${matches.length} pool matches fought`)

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { DEMO_CLUB } from './support'
+import { DEMO_CLUB, demo, signIn } from './support'
 
 // The demo event is loaded through the API by the test command, as by `npm start`.
 const EVENT = `/api/public/events/${DEMO_CLUB}/wrenmouth-harvest-open`
@@ -23,4 +23,16 @@ test('the published demo event has a finished sword-and-buckler pool phase and a
   }
   const semis = sb.bracket.state.matches.filter((m: { name: string }) => m.name === 'Semifinal')
   expect(semis.map((m: { sides: { seed: number }[] }) => m.sides.map(s => s.seed))).toEqual([[1, 4], [2, 3]])
+})
+
+test('the organizer sees what each ring of the demo event fences now, on deck and next', async ({ page }) => {
+  await signIn(page, demo.organizer)
+  await page.goto(`/clubs/${DEMO_CLUB}/events`)
+  await page.getByRole('link', { name: /Wrenmouth Harvest Open/ }).first().click()
+  const rings = page.locator('section[aria-labelledby="event-rings"]')
+  await expect(rings.getByRole('heading', { name: 'Ring 1' })).toBeVisible()
+  await expect(rings.getByRole('heading', { name: 'Ring 3' })).toBeVisible()
+  // Half of every longsword pool is still to fence, so every ring has a match on deck.
+  await expect(rings.locator('article')).toHaveCount(3)
+  for (const ring of await rings.locator('article').all()) await expect(ring).toContainText(/On deck\s*\S+.* v /s)
 })

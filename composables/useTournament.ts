@@ -169,3 +169,41 @@ export function useTournamentContext(): TournamentContext {
   if (!context) throw createError({ status: 500, statusText: 'Tournament not loaded', message: 'This tab belongs inside a tournament page.', fatal: true })
   return context
 }
+
+export interface EntryNotice { tone: 'success' | 'info' | 'danger', text: string, undo?: () => Promise<void> }
+
+/** The notice above an entries list, with an undo of the last change when it has one. */
+export function useEntryNotice() {
+  const notice = ref<EntryNotice | null>(null)
+  const undoing = ref(false)
+  async function undo(failure = 'That was not undone. Please try again.') {
+    const action = notice.value?.undo
+    if (!action) return
+    undoing.value = true
+    try {
+      await action()
+    }
+    catch (err) {
+      notice.value = { tone: 'danger', text: apiErrorMessage(err, failure) }
+    }
+    finally {
+      undoing.value = false
+    }
+  }
+  return { notice, undoing, undo }
+}
+
+/** Puts a changed entry into the loaded list, or appends a new one, without a reload. */
+export function replaceEntry(data: Ref<{ entries: TournamentEntry[] } | null | undefined>, entry: TournamentEntry) {
+  if (!data.value) return
+  const known = data.value.entries.some(e => e.id === entry.id)
+  data.value = {
+    ...data.value,
+    entries: known ? data.value.entries.map(e => e.id === entry.id ? entry : e) : [...data.value.entries, entry],
+  }
+}
+
+/** The notice after a withdrawal, the same on every entries screen. */
+export function withdrawnNotice(entry: TournamentEntry): EntryNotice {
+  return { tone: 'info', text: `${entry.fighter.name} has withdrawn: ${entry.withdrawalReason}.` }
+}

@@ -1,4 +1,3 @@
-import type { H3Event } from 'h3'
 import { and, eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { idParamSchema } from '#shared/schemas/club'
@@ -36,26 +35,4 @@ export async function findFighter(db: DbTx, clubId: number, fighterId: number) {
 
 export function fighterTaken() {
   return fieldError(409, 'name', 'The roster already has a fighter with this name from this club')
-}
-
-/**
- * One image from a multipart upload, checked by its content (PNG, JPEG or WebP, at most 2 MB).
- * Errors name the form field.
- */
-export async function readImageUpload(event: H3Event, field: string) {
-  const type = getRequestHeader(event, 'content-type') ?? ''
-  if (!type.toLowerCase().startsWith('multipart/form-data')) {
-    throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: `${field}: send the file as multipart/form-data` })
-  }
-  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (length > MAX_LOGO_BYTES + 64 * 1024) throw fieldError(400, field, 'The file is larger than 2 MB')
-  const parts = await readMultipartFormData(event).catch(() => {
-    throw fieldError(400, field, 'The upload could not be read')
-  })
-  const file = parts?.find(part => part.name === field && part.filename !== undefined)
-  if (!file || file.data.length === 0) throw fieldError(400, field, 'Choose an image file')
-  if (file.data.length > MAX_LOGO_BYTES) throw fieldError(400, field, 'The file is larger than 2 MB')
-  const kind = sniffImageType(file.data)
-  if (!kind) throw fieldError(400, field, 'Use a PNG, JPEG or WebP image')
-  return { data: file.data, kind }
 }

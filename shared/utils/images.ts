@@ -13,4 +13,5 @@ export function sniffImageType(bytes: Uint8Array): ImageType | null {
 
 export const IMAGE_EXTENSIONS: Record<ImageType, string> = { 'image/png': 'png', 'image/jpeg': 'jpg', 'image/webp': 'webp' }
 
-export const MAX_LOGO_BYTES = 2 * 1024 * 1024
+/** Logos and fighter photos. */
+export const MAX_IMAGE_BYTES = 2 * 1024 * 1024

@@ -5,9 +5,13 @@ import { fromRoot, localBin } from './paths.mjs'
 import { run } from './proc.mjs'
 import { info, warn } from './ui.mjs'
 
+// UNSCATHED_TEST_PORT_SHIFT moves every test port by the same amount, so that two checkouts on one
+// machine can run their tests at the same time.
+const shift = Number.parseInt(process.env.UNSCATHED_TEST_PORT_SHIFT ?? '0', 10) || 0
+
 export const PROFILES = {
   start: { pgName: 'pg', pgPort: 54329, database: 'unscathed', appPort: 3000, s3Port: 4568, s3Dir: '.data/s3', smtpPort: 2525, inboxPort: 2580 },
-  test: { pgName: 'pg-test', pgPort: 54339, database: 'unscathed_test', appPort: 3100, s3Port: 4578, s3Dir: '.data/s3-test', smtpPort: 2535, inboxPort: 2590 },
+  test: { pgName: 'pg-test', pgPort: 54339 + shift, database: 'unscathed_test', appPort: 3100 + shift, s3Port: 4578 + shift, s3Dir: '.data/s3-test', smtpPort: 2535 + shift, inboxPort: 2590 + shift },
 }
 
 const MIGRATIONS_JOURNAL = 'server/database/migrations/meta/_journal.json'

@@ -96,8 +96,9 @@ function afterblowPoints(ruleSet: RuleSet, first: number, after: number): [numbe
   switch (ruleSet.afterblow.scoring) {
     case 'full':
       return [first, after]
+    // The lower value is taken from the higher; the fighter whose hit was worth more scores the rest.
     case 'difference':
-      return [Math.abs(first - after), 0]
+      return first >= after ? [first - after, 0] : [0, after - first]
     case 'fixed':
       return [ruleSet.afterblow.firstHitPoints, ruleSet.afterblow.afterblowPoints]
   }

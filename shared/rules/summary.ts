@@ -134,7 +134,7 @@ function afterblowSection(ruleSet: RuleSet): string[] {
   const scoring = rule.scoring === 'full'
     ? 'Both hits score in full.'
     : rule.scoring === 'difference'
-      ? 'The lower value is taken from the higher, and the first hitter scores the difference.'
+      ? 'The lower value is taken from the higher, and the fighter whose hit was worth more scores the difference; equal hits score nothing.'
       : `The first hit scores ${points(rule.firstHitPoints)} and the afterblow ${points(rule.afterblowPoints)}.`
   return [
     'Once a hit lands, the fighter who was hit may strike back with one action, taking at most one step: the afterblow.',

@@ -84,12 +84,12 @@ describe('afterblow modes', () => {
     expect(score(deriveMatch(firstHitThreeBouts, log(hit)))).toEqual([2, 3])
   })
 
-  it('difference: the lower value is taken from the higher and the first hitter gets it', () => {
+  it('difference: the lower value is taken from the higher and the bigger hit scores the rest', () => {
     const difference = rules('first-hit-three-bouts', { afterblow: { scoring: 'difference' } })
     // head 3 first, arms 1 back → 3 − 1 = 2 to a.
     expect(score(deriveMatch(difference, log(afterblow('a', ['head', 'cut'], ['arms', 'cut']))))).toEqual([2, 0])
-    // torso 2 first, head 3 back → 3 − 2 = 1, still to the first hitter as the rule says.
-    expect(score(deriveMatch(difference, log(hit)))).toEqual([1, 0])
+    // torso 2 first, head 3 back → 3 − 2 = 1 to b, whose afterblow was worth more.
+    expect(score(deriveMatch(difference, log(hit)))).toEqual([0, 1])
     // equal values → 0 each, and both fighters were hit.
     const level = deriveMatch(difference, log(afterblow('b', ['legs', 'cut'], ['arms', 'thrust'])))
     expect(score(level)).toEqual([0, 0])

@@ -46,7 +46,7 @@ describe('plain-language summary', () => {
 
   it('explains each afterblow mode', () => {
     expect(section(firstHit, 'afterblow')).toContain('Both hits score in full.')
-    expect(section(points, 'afterblow')).toContain('The lower value is taken from the higher, and the first hitter scores the difference.')
+    expect(section(points, 'afterblow')).toContain('The lower value is taken from the higher, and the fighter whose hit was worth more scores the difference; equal hits score nothing.')
     const fixed = describeRules(rules('first-hit-three-bouts', { afterblow: { scoring: 'fixed', firstHitPoints: 2, afterblowPoints: 1 } }))
     expect(section(fixed, 'afterblow')).toContain('The first hit scores 2 points and the afterblow 1 point.')
   })

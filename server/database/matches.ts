@@ -4,16 +4,14 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { MatchEntry, Side } from '../../shared/rules'
 import type { Bracket } from '../../shared/tournament'
-import { entries, tournaments } from './tournaments'
+import { bracketFormat, entries, tournaments } from './tournaments'
 import { users } from './accounts'
 
 export const MATCH_STAGES = ['pool', 'final'] as const
 export const MATCH_STATUSES = ['scheduled', 'under-way', 'finished', 'forfeit'] as const
-export const BRACKET_FORMATS = ['bracket', 'round-robin'] as const
 
 export const matchStage = pgEnum('match_stage', MATCH_STAGES)
 export const matchStatus = pgEnum('match_status', MATCH_STATUSES)
-export const bracketFormat = pgEnum('bracket_format', BRACKET_FORMATS)
 
 export const pools = pgTable('pools', {
   id: serial('id').primaryKey(),
@@ -104,13 +102,18 @@ export const tournamentLots = pgTable('tournament_lots', {
   uniqueIndex('tournament_lots_draw_unique').on(t.tournamentId, t.scope, t.fighters),
 ])
 
+// The finals of a tournament: the finalists by their pool ranking, and for a bracket its state.
 export const brackets = pgTable('brackets', {
   tournamentId: integer('tournament_id').primaryKey().references(() => tournaments.id, { onDelete: 'cascade' }),
   format: bracketFormat('format').notNull().default('bracket'),
-  state: jsonb('state').$type<Bracket>().notNull(),
+  state: jsonb('state').$type<Bracket>(),
+  // Entry ids, best first.
+  field: jsonb('field').$type<number[]>().notNull().default([]),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow().$onUpdate(() => new Date()),
-})
+}, t => [
+  check('brackets_state_of_format', sql`(${t.format} = 'bracket') = (${t.state} is not null)`),
+])
 
 export const poolsRelations = relations(pools, ({ one, many }) => ({
   tournament: one(tournaments, { fields: [pools.tournamentId], references: [tournaments.id] }),

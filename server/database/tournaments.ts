@@ -3,12 +3,13 @@ import {
   boolean, check, date, foreignKey, index, integer, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, uniqueIndex,
 } from 'drizzle-orm/pg-core'
 import type { RuleSet } from '../../shared/rules'
-import { ENTRY_STATUSES, TOURNAMENT_PHASES } from '../../shared/schemas/tournament'
+import { ENTRY_STATUSES, FINALS_FORMATS, TOURNAMENT_PHASES } from '../../shared/schemas/tournament'
 import { clubs, users } from './accounts'
 import { timestamps } from './columns'
 
 export const tournamentPhase = pgEnum('tournament_phase', TOURNAMENT_PHASES)
 export const entryStatus = pgEnum('entry_status', ENTRY_STATUSES)
+export const bracketFormat = pgEnum('bracket_format', FINALS_FORMATS)
 
 export const ruleSets = pgTable('rule_sets', {
   id: serial('id').primaryKey(),
@@ -65,6 +66,8 @@ export const tournaments = pgTable('tournaments', {
   phase: tournamentPhase('phase').notNull().default('entries'),
   poolSize: integer('pool_size').notNull().default(5),
   qualifyCount: integer('qualify_count').notNull().default(4),
+  finalsFormat: bracketFormat('finals_format').notNull().default('bracket'),
+  bronzeMatch: boolean('bronze_match').notNull().default(true),
   ...timestamps,
 }, t => [
   // No action (checked at the end of the statement): a used rule set cannot be deleted, yet

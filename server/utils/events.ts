@@ -1,8 +1,8 @@
 import { and, eq, inArray, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { idParamSchema } from '#shared/schemas/club'
-import type { TournamentPhase } from '#shared/schemas/tournament'
-import { nextPhase } from '#shared/schemas/tournament'
+import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
+import { MAX_ROUND_ROBIN_FINALISTS, nextPhase } from '#shared/schemas/tournament'
 import type { Db } from './db'
 
 export type DbTx = Db | Parameters<Parameters<Db['transaction']>[0]>[0]
@@ -111,6 +111,8 @@ export function tournamentView(tournament: Tournament, ruleSetName: string | nul
     nextPhase: nextPhase(tournament.phase),
     poolSize: tournament.poolSize,
     qualifyCount: tournament.qualifyCount,
+    finalsFormat: tournament.finalsFormat,
+    bronzeMatch: tournament.bronzeMatch,
     entries: counts ?? { entered: 0, checkedIn: 0, withdrawn: 0 },
     createdAt: tournament.createdAt,
     updatedAt: tournament.updatedAt,
@@ -141,6 +143,13 @@ export async function chooseRuleSet(db: DbTx, clubId: number, ruleSetId: number,
   const [chosen] = await db.select().from(v).where(and(eq(v.ruleSetId, ruleSet.id), eq(v.version, wanted)))
   if (!chosen) throw fieldError(400, 'ruleSetVersion', `“${ruleSet.name}” has versions 1 to ${ruleSet.currentVersion}`)
   return { ruleSet, version: wanted, settings: chosen.settings }
+}
+
+/** 400 on `qualifyCount` when a round-robin final would hold more fighters than it can. */
+export function requireRoundRobinSize(format: FinalsFormat, qualifyCount: number) {
+  if (format === 'round-robin' && qualifyCount > MAX_ROUND_ROBIN_FINALISTS) {
+    throw fieldError(400, 'qualifyCount', `A round-robin final holds at most ${MAX_ROUND_ROBIN_FINALISTS} fighters; lower the number who reach the finals or choose a bracket`)
+  }
 }
 
 export function eventSlugTaken() {

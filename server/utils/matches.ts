@@ -3,8 +3,6 @@ import { z } from 'zod'
 import { checkEntry, deriveMatch, matchEntrySchema, otherSide } from '#shared/rules'
 import type { MatchEntry, MatchState, RuleSet, Side } from '#shared/rules'
 import { idParamSchema } from '#shared/schemas/club'
-import { advance, bracketPlaces } from '#shared/tournament'
-import type { Bracket } from '#shared/tournament'
 import type { DbTx } from './events'
 
 // The one place where match logs are read, checked, appended and turned into what the routes
@@ -284,62 +282,6 @@ export async function appendEntries(
     await advanceFinal(tx, tournament.id, updated!, state.result)
   }
   return { match: matchSummary(updated!, refs, state), state, stored: fresh.map(f => f.entry.id), duplicates }
-}
-
-// ——— the bracket ———
-
-/** Matches in the order a bracket is fenced: round by round, the bronze match before the final. */
-export function bracketOrder(bracket: Bracket): string[] {
-  return [...bracket.matches]
-    .sort((a, b) => a.round - b.round || (a.kind === b.kind ? a.slot - b.slot : a.kind === 'bronze' ? -1 : 1))
-    .map(m => m.id)
-}
-
-/**
- * Moves the winner of a decided final match on (and a semifinal loser to the bronze match), in the
- * caller's transaction, filling the sides of the matches they go to.
- */
-export async function advanceFinal(tx: DbTx, tournamentId: number, match: Match, winner: Side) {
-  const b = schema.brackets
-  const [row] = await tx.select().from(b).where(eq(b.tournamentId, tournamentId)).for('update')
-  if (!row || match.bracketMatchKey === null) return
-  const winnerEntry = winner === 'a' ? match.sideAEntry : match.sideBEntry
-  const next = advance(row.state, match.bracketMatchKey, winnerEntry!)
-  await tx.update(b).set({ state: next }).where(eq(b.tournamentId, tournamentId))
-  const decided = next.matches.find(m => m.id === match.bracketMatchKey)!
-  for (const link of [decided.winnerTo, decided.loserTo]) {
-    if (!link) continue
-    const target = next.matches.find(m => m.id === link.matchId)!
-    const m = schema.matches
-    await tx.update(m).set({ sideAEntry: target.sides[0].fighterId, sideBEntry: target.sides[1].fighterId })
-      .where(and(eq(m.tournamentId, tournamentId), eq(m.bracketMatchKey, link.matchId)))
-  }
-}
-
-/** The bracket, its matches in the order they are fenced and the places so far; all empty before the finals. */
-export async function bracketView(db: DbTx, tournament: Tournament) {
-  const [row] = await db.select().from(schema.brackets).where(eq(schema.brackets.tournamentId, tournament.id))
-  if (!row) return { bracket: null, format: null, places: null, matches: [] }
-  const m = schema.matches
-  const rows = await db.select().from(m)
-    .where(and(eq(m.tournamentId, tournament.id), eq(m.stage, 'final'))).orderBy(asc(m.orderInPool))
-  return { bracket: row.state, format: row.format, places: bracketPlaces(row.state), matches: await matchSummaries(db, tournament, rows) }
-}
-
-/** The final matches to create for a new bracket: every slot but the byes, the known sides filled. */
-export function bracketMatchRows(tournamentId: number, bracket: Bracket): (typeof schema.matches.$inferInsert)[] {
-  const order = bracketOrder(bracket)
-  return bracket.matches
-    .filter(m => m.status !== 'bye')
-    .map(m => ({
-      tournamentId,
-      poolId: null,
-      stage: 'final' as const,
-      bracketMatchKey: m.id,
-      orderInPool: order.indexOf(m.id) + 1,
-      sideAEntry: m.sides[0].fighterId,
-      sideBEntry: m.sides[1].fighterId,
-    }))
 }
 
 // ——— the schedule's estimates ———

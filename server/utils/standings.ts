@@ -2,7 +2,6 @@ import { randomBytes } from 'node:crypto'
 import { and, asc, eq, ne } from 'drizzle-orm'
 import { assessQualification, computeStandings } from '#shared/rules'
 import type { CutStatus, FighterOutlook, LotDraw, Pool, PoolMatch, QualificationOutlook, RuleSet, StandingRow, Standings } from '#shared/rules'
-import { buildBracket } from '#shared/tournament'
 import type { DbTx } from './events'
 import type { FighterRef } from './matches'
 import type { LoadedPool } from './pools'
@@ -235,26 +234,25 @@ export function finalists(tables: TournamentTables): number[] {
     .map(row => Number(row.fighterId))
 }
 
+export const FINAL_SCOPE = 'final'
+
 /**
- * Builds the bracket as the tournament enters its finals, in the phase change's transaction (the
- * tournament row is locked): the finalists by the overall ranking, a bronze match when there are
- * semifinals, and a final match for every slot that is not a bye. A tournament that never drew
- * pools goes to its finals without a bracket.
+ * The table of a round-robin final: the finalists as one pool, ranked by the same rule set, with
+ * the lot recorded under the `final` scope once every match is settled. Must run in a transaction.
  */
-export async function startFinals(tx: DbTx, tournament: Tournament) {
-  const loaded = await loadPools(tx, tournament.id)
-  if (loaded.length === 0) return null
-  const tables = await tournamentTables(tx, tournament, loaded)
-  if (!tables.overall.complete) {
-    const n = tables.overall.pendingMatches
-    throw fieldError(409, 'to', `${n} pool ${n === 1 ? 'match is' : 'matches are'} still to be fenced or settled before the finals`)
+export async function finalTable(tx: DbTx, tournament: Tournament, field: readonly number[], rows: readonly Match[]) {
+  const ruleSet = rulesOf(tournament)
+  const refs = await fighterRefs(tx, tournament.id)
+  const logs = await matchLogs(tx, rows.map(r => r.id))
+  const pool: Pool = {
+    fighters: field.map(id => ({ id: String(id), withdrawn: refs.get(id)!.status === 'withdrawn' })),
+    matches: rows.map(r => poolMatch(r, payloads(logs.get(r.id)!))),
+    lotSeed: '',
   }
-  const field = finalists(tables)
-  if (field.length < 2) {
-    throw fieldError(409, 'to', `The finals need at least 2 qualified fighters; ${field.length} ${field.length === 1 ? 'qualifies' : 'qualify'}`)
-  }
-  const bracket = buildBracket(field, { bronze: field.length >= 4 })
-  await tx.insert(schema.brackets).values({ tournamentId: tournament.id, format: 'bracket', state: bracket })
-  await tx.insert(schema.matches).values(bracketMatchRows(tournament.id, bracket))
-  return bracket
+  const complete = pending(computeStandings(ruleSet, { ...pool, lotSeed: 'probe' })) === 0
+  const book = await readLots(tx, tournament.id)
+  const { result, lot } = await withLot(book, FINAL_SCOPE, complete, seed => computeStandings(ruleSet, { ...pool, lotSeed: seed }), s => s.lot.draws)
+  // Everyone in a final has made the cut already.
+  const outlook = new Map(field.map(id => [String(id), 'secured' as const]))
+  return { complete, rows: result.rows.map(r => standingRowView(r, refs, outlook)), lot }
 }

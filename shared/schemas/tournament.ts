@@ -7,6 +7,10 @@ export const TOURNAMENT_PHASES = ['entries', 'pools', 'finals', 'done'] as const
 export type TournamentPhase = typeof TOURNAMENT_PHASES[number]
 
 export const ENTRY_STATUSES = ['entered', 'checked-in', 'withdrawn'] as const
+
+/** How the finalists fence for the places: an elimination bracket, or a round robin among them. */
+export const FINALS_FORMATS = ['bracket', 'round-robin'] as const
+export type FinalsFormat = typeof FINALS_FORMATS[number]
 export type EntryStatus = typeof ENTRY_STATUSES[number]
 
 export const MAX_RINGS = 8
@@ -101,6 +105,15 @@ export const eventPatchSchema = z.object(eventFields).partial().strict()
 
 // ——— tournaments ———
 
+/** A round robin of more than eight finalists takes longer than a bracket is worth. */
+export const MAX_ROUND_ROBIN_FINALISTS = 8
+
+function roundRobinSize(value: { finalsFormat?: FinalsFormat, qualifyCount?: number }, ctx: z.RefinementCtx) {
+  if (value.finalsFormat === 'round-robin' && value.qualifyCount !== undefined && value.qualifyCount > MAX_ROUND_ROBIN_FINALISTS) {
+    ctx.addIssue({ code: 'custom', path: ['qualifyCount'], message: `A round-robin final holds at most ${MAX_ROUND_ROBIN_FINALISTS} fighters` })
+  }
+}
+
 const tournamentFields = {
   name: text(120, 'Enter the tournament name'),
   weapon: text(60, 'Enter the weapon, e.g. longsword'),
@@ -111,6 +124,9 @@ const tournamentFields = {
     .min(3, { error: 'A pool needs at least 3 fighters' }).max(12, { error: 'At most 12 fighters in a pool' }),
   qualifyCount: z.number({ error: 'Enter how many reach the finals' }).int({ error: 'Use a whole number' })
     .min(2, { error: 'At least 2 reach the finals' }).max(64, { error: 'At most 64 reach the finals' }),
+  finalsFormat: z.enum(FINALS_FORMATS, { error: 'Choose a bracket or a round robin' }),
+  // A match for third place between the semifinal losers (brackets of four or more).
+  bronzeMatch: z.boolean({ error: 'Choose whether there is a match for third place' }),
 }
 
 export const tournamentSchema = z.object({
@@ -119,10 +135,13 @@ export const tournamentSchema = z.object({
   poolSize: tournamentFields.poolSize.default(5),
   // Without it, the rule set's own number (its top N) is taken.
   qualifyCount: tournamentFields.qualifyCount.optional(),
-}).strict()
+  finalsFormat: tournamentFields.finalsFormat.default('bracket'),
+  bronzeMatch: tournamentFields.bronzeMatch.default(true),
+}).strict().superRefine(roundRobinSize)
 
 export const tournamentPatchSchema = z.object(tournamentFields).partial().strict()
   .refine(value => Object.keys(value).length > 0, { error: 'Send at least one field to change' })
+  .superRefine(roundRobinSize)
 
 export const phaseChangeSchema = z.object({
   to: z.enum(TOURNAMENT_PHASES, { error: `Use one of: ${TOURNAMENT_PHASES.join(', ')}` }),

@@ -54,6 +54,8 @@ export interface FixtureOptions {
   poolSize?: number
   qualifyCount?: number
   rings?: number
+  finalsFormat?: 'bracket' | 'round-robin'
+  bronzeMatch?: boolean
   /** Fighters to enter (from ROSTER by default), each checked in unless listed in `notCheckedIn`. */
   fighters?: readonly { name: string, clubName: string, seed?: number }[]
   notCheckedIn?: readonly string[]
@@ -73,6 +75,8 @@ export async function makeFixture(club: TestClub, organizer: Client, options: Fi
   const tournament = await organizer.post(`/api/clubs/${club.id}/events/${event.data.id}/tournaments`, {
     name: 'Sword and buckler', weapon: 'sword and buckler', ruleSetId,
     poolSize: options.poolSize ?? 5, ...(options.qualifyCount === undefined ? {} : { qualifyCount: options.qualifyCount }),
+    ...(options.finalsFormat === undefined ? {} : { finalsFormat: options.finalsFormat }),
+    ...(options.bronzeMatch === undefined ? {} : { bronzeMatch: options.bronzeMatch }),
   })
   expect(tournament.status).toBe(201)
   const base = `/api/clubs/${club.id}/events/${event.data.id}/tournaments/${tournament.data.id}`

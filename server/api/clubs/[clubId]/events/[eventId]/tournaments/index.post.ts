@@ -7,6 +7,8 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   await findEvent(db, clubId, eventId)
   const { ruleSet, version, settings } = await chooseRuleSet(db, clubId, input.ruleSetId, input.ruleSetVersion)
+  const qualifyCount = input.qualifyCount ?? defaultQualifyCount(settings)
+  requireRoundRobinSize(input.finalsFormat, qualifyCount)
   const [row] = await db.insert(schema.tournaments).values({
     eventId,
     name: input.name,
@@ -14,7 +16,9 @@ export default defineEventHandler(async (event) => {
     ruleSetId: ruleSet.id,
     ruleSetVersion: version,
     poolSize: input.poolSize,
-    qualifyCount: input.qualifyCount ?? defaultQualifyCount(settings),
+    qualifyCount,
+    finalsFormat: input.finalsFormat,
+    bronzeMatch: input.bronzeMatch,
   }).returning().catch((err: unknown) => {
     if (isUniqueViolation(err)) throw tournamentNameTaken()
     // The rule set was deleted between the check and the insert.

@@ -48,7 +48,7 @@ export default defineEventHandler(async (event) => {
     const loaded = tournament.phase === 'entries' ? [] : await loadPools(tx, tournament.id)
     const pools = await poolViews(tx, tournament)
     const tables = loaded.length === 0 ? null : await tournamentTables(tx, tournament, loaded)
-    const bracket = await bracketView(tx, tournament)
+    const finals = await finalsView(tx, tournament)
     return {
       event: publicEventSummary(row.event),
       tournament: { id: tournament.id, name: tournament.name, weapon: tournament.weapon, phase: tournament.phase },
@@ -64,7 +64,13 @@ export default defineEventHandler(async (event) => {
         overall: { complete: tables.overall.complete, rows: tables.overall.rows.map(publicRow) },
         cut: tables.cut,
       },
-      bracket: bracket.bracket && { state: bracket.bracket, places: bracket.places, matches: bracket.matches.map(publicMatch) },
+      finals: finals.format && {
+        format: finals.format,
+        bracket: finals.bracket,
+        table: finals.table && { complete: finals.table.complete, rows: finals.table.rows.map(publicRow) },
+        places: finals.places,
+        matches: finals.matches.map(publicMatch),
+      },
     }
   })
 })

@@ -27,6 +27,12 @@ export default defineEventHandler(async (event) => {
       requirePhase(tournament, ['entries', 'pools'], 'changing how many reach the finals')
       change.qualifyCount = input.qualifyCount
     }
+    if (input.finalsFormat !== undefined || input.bronzeMatch !== undefined) {
+      requirePhase(tournament, ['entries', 'pools'], 'changing the format of the finals')
+      if (input.finalsFormat !== undefined) change.finalsFormat = input.finalsFormat
+      if (input.bronzeMatch !== undefined) change.bronzeMatch = input.bronzeMatch
+    }
+    requireRoundRobinSize(change.finalsFormat ?? tournament.finalsFormat, change.qualifyCount ?? tournament.qualifyCount)
     if (Object.keys(change).length > 0) {
       await tx.update(schema.tournaments).set(change).where(eq(schema.tournaments.id, ids.tournamentId))
     }

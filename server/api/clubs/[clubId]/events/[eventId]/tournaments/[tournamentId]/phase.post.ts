@@ -34,8 +34,18 @@ export default defineEventHandler(async (event) => {
     if (to === 'finals' && fighters < 2) {
       throw fieldError(409, 'to', 'The finals need at least 2 fighters still in the tournament')
     }
-    // The bracket is built in this transaction, from the overall ranking of the pools.
+    // The finals are drawn in this transaction, from the overall ranking of the pools.
     if (to === 'finals') await startFinals(tx, tournament)
+    if (to === 'done') {
+      const finals = await finalsView(tx, tournament)
+      const open = finals.matches.filter(m => m.status !== 'forfeit' && !(m.status === 'finished' && (m.winner !== null || finals.format === 'round-robin')))
+      if (finals.format !== null && (open.length > 0 || !finals.complete)) {
+        const level = open.filter(m => m.status === 'finished').length
+        throw fieldError(409, 'to', open.length === 0
+          ? 'The finals are not decided yet'
+          : `${open.length} final ${open.length === 1 ? 'match is' : 'matches are'} still to be fenced${level > 0 ? ` or settled (${level} ended level: record the director's decision as a forfeit)` : ''}`)
+      }
+    }
     await tx.update(schema.tournaments).set(change).where(eq(schema.tournaments.id, tournament.id))
   })
   return tournamentDetail(db, ids)

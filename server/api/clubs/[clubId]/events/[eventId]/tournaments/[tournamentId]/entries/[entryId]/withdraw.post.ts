@@ -11,6 +11,8 @@ export default defineEventHandler(async (event) => {
     if (entry.status === 'withdrawn') throw conflictError(`${fighter.name} has already withdrawn`)
     const [row] = await tx.update(schema.entries).set({ status: 'withdrawn', withdrawnAt: new Date(), withdrawalReason: reason })
       .where(eq(schema.entries.id, entry.id)).returning()
+    // In the pools the rule set says how the table treats a withdrawal; a bracket cannot wait.
+    if (tournament.phase === 'finals') await forfeitWithdrawnFinals(tx, tournament.id, entry.id, reason)
     return entryView(row!, fighter)
   })
 })

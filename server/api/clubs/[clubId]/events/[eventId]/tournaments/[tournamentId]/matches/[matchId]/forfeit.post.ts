@@ -1,4 +1,3 @@
-import { eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { SIDES, deriveMatch, otherSide } from '#shared/rules'
 import { tidySpaces } from '#shared/schemas/tournament'
@@ -28,15 +27,8 @@ export default defineEventHandler(async (event) => {
     if (match.status === 'finished' && !(match.stage === 'final' && level)) {
       throw conflictError('The match is finished and its result stands')
     }
-    const now = new Date()
-    const [updated] = await tx.update(schema.matches).set({
-      status: 'forfeit',
-      forfeitedBy: side,
-      forfeitReason: reason,
-      version: match.version + 1,
-      finishedAt: now,
-    }).where(eq(schema.matches.id, match.id)).returning()
-    if (match.stage === 'final') await advanceFinal(tx, tournament.id, updated!, otherSide(side))
-    return { match: matchSummary(updated!, await fighterRefs(tx, tournament.id), before), state: before }
+    const updated = await forfeitMatch(tx, match, side, reason)
+    if (match.stage === 'final') await advanceFinal(tx, tournament.id, updated, otherSide(side))
+    return { match: matchSummary(updated, await fighterRefs(tx, tournament.id), before), state: before }
   })
 })

@@ -56,8 +56,12 @@ export const matches = pgTable('matches', {
   forfeitReason: text('forfeit_reason'),
   startedAt: timestamp('started_at', { withTimezone: true }),
   finishedAt: timestamp('finished_at', { withTimezone: true }),
+  // The match clock (points format), kept by the server: time run so far, and since when it runs.
+  clockElapsedMs: integer('clock_elapsed_ms').notNull().default(0),
+  clockRunningSince: timestamp('clock_running_since', { withTimezone: true }),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [
+  check('matches_clock_positive', sql`${t.clockElapsedMs} >= 0`),
   index('matches_tournament_idx').on(t.tournamentId, t.stage),
   uniqueIndex('matches_pool_order_unique').on(t.poolId, t.orderInPool),
   uniqueIndex('matches_bracket_key_unique').on(t.tournamentId, t.bracketMatchKey),

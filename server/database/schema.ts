@@ -2,3 +2,4 @@
 export * from './accounts'
 export * from './tournaments'
 export * from './matches'
+export * from './live'

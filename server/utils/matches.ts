@@ -281,6 +281,7 @@ export async function appendEntries(
   if (state.finished && match.stage === 'final' && (state.result === 'a' || state.result === 'b')) {
     await advanceFinal(tx, tournament.id, updated!, state.result)
   }
+  await publishMatch(tx, tournament, updated!, refs, entries, state)
   return { match: matchSummary(updated!, refs, state), state, stored: fresh.map(f => f.entry.id), duplicates }
 }
 

@@ -42,10 +42,15 @@ export async function makeClub(label: string): Promise<TestClub> {
   return { id: club!.id, slug: club!.slug, name: club!.name, members }
 }
 
-/** Row counts of every table, to prove that a refused request changed nothing. */
+// The live bus's tables hold messages derived from the data, written a moment after each change
+// by the snapshot publisher: they move on their own, so they prove nothing about one request.
+const DERIVED_TABLES = ['live_events', 'live_dirty', 'ring_states']
+
+/** Row counts of every table but the live bus's, to prove that a refused request changed nothing. */
 export async function tableCounts(): Promise<Record<string, number>> {
   const { rows } = await pool.query<{ table_name: string }>(
-    `select table_name from information_schema.tables where table_schema = 'public' and table_type = 'BASE TABLE' order by 1`)
+    `select table_name from information_schema.tables where table_schema = 'public' and table_type = 'BASE TABLE'
+     and table_name <> all($1) order by 1`, [DERIVED_TABLES])
   const counts: Record<string, number> = {}
   for (const { table_name } of rows) {
     const result = await pool.query<{ n: string }>(`select count(*) as n from "${table_name}"`)

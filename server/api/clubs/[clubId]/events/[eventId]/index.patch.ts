@@ -15,6 +15,7 @@ export default defineEventHandler(async (event) => {
       throw fieldError(400, input.emergencyNumber === '' ? 'emergencyNumber' : 'firstAidPoint', 'A published event must show this in its safety notice; unpublish it first')
     }
     const [row] = await tx.update(schema.events).set(input).where(eq(schema.events.id, eventId)).returning()
+    await markRingsDirty(tx, eventId)
     return row!
   }).catch((err: unknown) => {
     if (isUniqueViolation(err)) throw eventSlugTaken()

@@ -47,6 +47,7 @@ export default defineEventHandler(async (event) => {
       }
     }
     await tx.update(schema.tournaments).set(change).where(eq(schema.tournaments.id, tournament.id))
+    await markRingsDirty(tx, tournament.eventId)
   })
   return tournamentDetail(db, ids)
 })

@@ -33,6 +33,7 @@ export default defineEventHandler(async (event) => {
       return { pools: plan.pools.map((members, i) => draftView(i + 1, (i % row.rings) + 1, members)), notes: plan.notes }
     }
     await writeDraw(tx, tournament.id, row.rings, plan)
+    await markRingsDirty(tx, tournament.eventId)
     return { pools: await poolViews(tx, tournament), notes: plan.notes }
   })
   if (!dryRun) setResponseStatus(event, 201)

@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
     }
     const [row] = await tx.update(schema.entries).set({ status: checkedIn ? 'checked-in' : 'entered', withdrawnAt: null, withdrawalReason: null })
       .where(eq(schema.entries.id, entry.id)).returning()
+    if (tournament.phase !== 'entries') await markRingsDirty(tx, tournament.eventId)
     return entryView(row!, fighter)
   })
 })

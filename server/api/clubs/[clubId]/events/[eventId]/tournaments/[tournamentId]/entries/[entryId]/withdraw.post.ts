@@ -13,6 +13,7 @@ export default defineEventHandler(async (event) => {
       .where(eq(schema.entries.id, entry.id)).returning()
     // In the pools the rule set says how the table treats a withdrawal; a bracket cannot wait.
     if (tournament.phase === 'finals') await forfeitWithdrawnFinals(tx, tournament.id, entry.id, reason)
+    if (tournament.phase !== 'entries') await markRingsDirty(tx, tournament.eventId)
     return entryView(row!, fighter)
   })
 })

@@ -29,6 +29,8 @@ export default defineEventHandler(async (event) => {
     }
     const updated = await forfeitMatch(tx, match, side, reason)
     if (match.stage === 'final') await advanceFinal(tx, tournament.id, updated, otherSide(side))
-    return { match: matchSummary(updated, await fighterRefs(tx, tournament.id), before), state: before }
+    const refs = await fighterRefs(tx, tournament.id)
+    await publishMatch(tx, tournament, updated, refs, payloads(log), before)
+    return { match: matchSummary(updated, refs, before), state: before }
   })
 })

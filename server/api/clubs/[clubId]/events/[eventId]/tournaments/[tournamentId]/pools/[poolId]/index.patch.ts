@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
     requirePhase(tournament, ['pools'], 'moving a pool to another ring')
     if (ringNumber > row.rings) throw fieldError(400, 'ringNumber', `The event has ${row.rings} ${row.rings === 1 ? 'ring' : 'rings'}`)
     await tx.update(p).set({ ringNumber }).where(eq(p.id, pool.id))
+    await markRingsDirty(tx, tournament.eventId)
     return (await poolViews(tx, tournament)).find(view => view.id === pool.id)!
   })
 })

@@ -41,6 +41,7 @@ export default defineEventHandler(async (event) => {
     for (const index of [fromIndex, toIndex]) {
       await fillPool(tx, tournament.id, loaded[index]!.pool, check.pools[index]!.map(e => refs.get(e.id)!))
     }
+    await markRingsDirty(tx, tournament.eventId)
     return {
       pools: await poolViews(tx, tournament),
       warnings: moveWarnings(check.warnings, fighter, to.pool.number, check.pools.map(p => p.length)),

@@ -1,4 +1,4 @@
-import type { TournamentPhase } from '#shared/schemas/tournament'
+import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
 
 // One tournament: its detail, its entries and the club's roster of fighters. Shapes follow the
 // route files under server/api/clubs/[clubId]/events/[eventId]/tournaments and fighters.
@@ -67,7 +67,7 @@ export const PHASE_NAMES: Record<TournamentPhase, string> = {
 export const PHASE_DUTIES: Record<TournamentPhase, string> = {
   entries: 'Taking entries and checking fighters in.',
   pools: 'Drawing the pools and fencing them.',
-  finals: 'Fencing the bracket.',
+  finals: 'Fencing the finals.',
   done: 'Finished: results are final.',
 }
 
@@ -75,6 +75,12 @@ export const ENTRY_STATUS_NAMES: Record<TournamentEntryStatus, string> = {
   'entered': 'Entered',
   'checked-in': 'Checked in',
   'withdrawn': 'Withdrawn',
+}
+
+/** "4 to a bracket with a match for third", "5 to a round-robin final". */
+export function finalsLine(t: { qualifyCount: number, finalsFormat: FinalsFormat, bronzeMatch: boolean }): string {
+  if (t.finalsFormat === 'round-robin') return `${t.qualifyCount} to a round-robin final`
+  return `${t.qualifyCount} to a bracket${t.bronzeMatch && t.qualifyCount >= 4 ? ' with a match for third' : ''}`
 }
 
 export function tournamentBase(clubId: number, eventId: number, tournamentId: number): string {

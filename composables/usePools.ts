@@ -196,7 +196,13 @@ export interface PublicTournamentView {
     overall: { complete: boolean, rows: StandingRowView[] } | null
     cut: { topN: number | null, minSurvivalRate: number | null }
   } | null
-  bracket: { state: Bracket, places: BracketPlaces | null, matches: MatchSummary[] } | null
+  finals: {
+    format: FinalsFormat
+    bracket: Bracket | null
+    table: { complete: boolean, rows: StandingRowView[] } | null
+    places: BracketPlaces | null
+    matches: MatchSummary[]
+  } | null
 }
 
 export function usePools(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {

@@ -1,6 +1,6 @@
 import { TARGETS, ruleSetSchema } from '#shared/rules'
 import type { Format, RuleSet, Target, TieBreaker, WithdrawalRule } from '#shared/rules'
-import type { TournamentPhase } from '#shared/schemas/tournament'
+import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
 
 // Rule sets and events: the organizer's set-up before the day. Shapes follow the route files under
 // server/api/clubs/[clubId]/{rule-sets,events}.
@@ -49,6 +49,8 @@ export interface EventTournament {
   nextPhase: TournamentPhase | null
   poolSize: number
   qualifyCount: number
+  finalsFormat: FinalsFormat
+  bronzeMatch: boolean
   entries: EntryCountsView
   createdAt: string
   updatedAt: string

@@ -1,4 +1,4 @@
-import type { TournamentPhase } from '#shared/schemas/tournament'
+import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
 import type { Bracket, BracketPlaces } from '#shared/tournament'
 
 // Pools, standings and the bracket of a tournament (routes under …/tournaments/:tournamentId).
@@ -81,7 +81,8 @@ export interface StandingFighter {
 export interface StandingRowView {
   rank: number
   fighter: StandingFighter
-  status: 'active' | 'withdrawn' | 'expelled'
+  /** Withdrawn or expelled, else where the fighter stands against the cut. */
+  status: CutStatusView | 'withdrawn' | 'expelled'
   matchesFought: number
   wins: number
   losses: number
@@ -129,10 +130,44 @@ export interface StandingsResponse {
   cut: { topN: number | null, minSurvivalRate: number | null }
 }
 
-export interface BracketResponse {
+/** The finals (…/bracket): empty before them; `field` is the finalists' entry ids, best first. */
+export interface FinalsResponse {
+  format: FinalsFormat | null
+  field: number[]
   bracket: Bracket | null
+  table: { complete: boolean, rows: StandingRowView[], lot?: LotView } | null
   places: BracketPlaces | null
   matches: MatchSummary[]
+  complete: boolean
+}
+
+/**
+ * Final matches still to fence or to settle, as closing the tournament counts them: a bracket
+ * match that ended level waits for the director's decision.
+ */
+export function openFinalMatches(finals: Pick<FinalsResponse, 'format' | 'matches'>): number {
+  return finals.matches.filter(m => m.status !== 'forfeit' && !(m.status === 'finished' && (m.winner !== null || finals.format === 'round-robin'))).length
+}
+
+/** The places as lines to show, e.g. First: Hedda Crane; names by entry id. */
+export function placeLines(places: BracketPlaces | null, nameOf: (entryId: number) => string | null) {
+  if (!places) return []
+  const name = (id: number | null) => (id === null ? null : nameOf(id))
+  return [
+    { place: 'First', names: [name(places.first)] },
+    { place: 'Second', names: [name(places.second)] },
+    { place: 'Third', names: places.third.map(name) },
+    { place: 'Fourth', names: [name(places.fourth)] },
+  ]
+    .map(row => ({ place: row.place, names: row.names.filter((n): n is string => Boolean(n)) }))
+    .filter(row => row.names.length > 0)
+}
+
+/** One line per drawn lot of a table: the tied fighters in the order the lot placed them. */
+export function lotLines(rows: StandingRowView[], lot?: LotView): string[] {
+  if (!lot || lot.draws.length === 0) return []
+  const names = new Map(rows.map(r => [r.fighter.entryId, r.fighter.name]))
+  return lot.draws.map(d => d.order.map(id => names.get(id) ?? `#${id}`).join(', '))
 }
 
 // ——— the club site ———
@@ -161,7 +196,13 @@ export interface PublicTournamentView {
     overall: { complete: boolean, rows: StandingRowView[] } | null
     cut: { topN: number | null, minSurvivalRate: number | null }
   } | null
-  bracket: { state: Bracket, places: BracketPlaces | null, matches: MatchSummary[] } | null
+  finals: {
+    format: FinalsFormat
+    bracket: Bracket | null
+    table: { complete: boolean, rows: StandingRowView[] } | null
+    places: BracketPlaces | null
+    matches: MatchSummary[]
+  } | null
 }
 
 export function usePools(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
@@ -176,8 +217,8 @@ export function useStandings(base: MaybeRefOrGetter<string>, key: MaybeRefOrGett
   })
 }
 
-export function useBracket(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
-  return useFetch<BracketResponse>(() => `${toValue(base)}/bracket`, {
+export function useFinals(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
+  return useFetch<FinalsResponse>(() => `${toValue(base)}/bracket`, {
     key: () => `bracket-${toValue(key)}`,
   })
 }

@@ -1,4 +1,4 @@
-import type { TournamentPhase } from '#shared/schemas/tournament'
+import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
 
 // One tournament: its detail, its entries and the club's roster of fighters. Shapes follow the
 // route files under server/api/clubs/[clubId]/events/[eventId]/tournaments and fighters.
@@ -67,7 +67,7 @@ export const PHASE_NAMES: Record<TournamentPhase, string> = {
 export const PHASE_DUTIES: Record<TournamentPhase, string> = {
   entries: 'Taking entries and checking fighters in.',
   pools: 'Drawing the pools and fencing them.',
-  finals: 'Fencing the bracket.',
+  finals: 'Fencing the finals.',
   done: 'Finished: results are final.',
 }
 
@@ -75,6 +75,12 @@ export const ENTRY_STATUS_NAMES: Record<TournamentEntryStatus, string> = {
   'entered': 'Entered',
   'checked-in': 'Checked in',
   'withdrawn': 'Withdrawn',
+}
+
+/** "4 to a bracket with a match for third", "5 to a round-robin final". */
+export function finalsLine(t: { qualifyCount: number, finalsFormat: FinalsFormat, bronzeMatch: boolean }): string {
+  if (t.finalsFormat === 'round-robin') return `${t.qualifyCount} to a round-robin final`
+  return `${t.qualifyCount} to a bracket${t.bronzeMatch && t.qualifyCount >= 4 ? ' with a match for third' : ''}`
 }
 
 export function tournamentBase(clubId: number, eventId: number, tournamentId: number): string {
@@ -203,7 +209,37 @@ export function replaceEntry(data: Ref<{ entries: TournamentEntry[] } | null | u
   }
 }
 
-/** The notice after a withdrawal, the same on every entries screen. */
-export function withdrawnNotice(entry: TournamentEntry): EntryNotice {
-  return { tone: 'info', text: `${entry.fighter.name} has withdrawn: ${entry.withdrawalReason}.` }
+/** A withdrawal can be taken back until the finals (…/entries/[entryId]/withdraw.delete.ts). */
+export function canTakeBackWithdrawal(phase: TournamentPhase): boolean {
+  return phase === 'entries' || phase === 'pools'
+}
+
+export function takeBackWithdrawal(api: string, entry: TournamentEntry): Promise<TournamentEntry> {
+  return $fetch<TournamentEntry>(`${api}/entries/${entry.id}/withdraw`, { method: 'DELETE' })
+}
+
+/**
+ * Withdrawals on an entries screen: the notice after one (with an undo while it can be taken
+ * back), and the notice once a withdrawal is taken back. `apply` puts the changed entry in place.
+ */
+export function useWithdrawals(context: TournamentContext, notice: Ref<EntryNotice | null>, apply: (entry: TournamentEntry) => void) {
+  function takenBack(entry: TournamentEntry) {
+    apply(entry)
+    notice.value = {
+      tone: 'success',
+      text: `${entry.fighter.name} is back in the tournament${entry.status === 'checked-in' ? ', checked in' : entry.status === 'entered' ? '; check them in again' : ''}.`,
+    }
+    void context.refresh()
+  }
+
+  function withdrawn(entry: TournamentEntry) {
+    apply(entry)
+    const text = `${entry.fighter.name} has withdrawn: ${entry.withdrawalReason}.`
+    notice.value = canTakeBackWithdrawal(context.tournament.value.phase)
+      ? { tone: 'info', text, undo: async () => takenBack(await takeBackWithdrawal(context.api.value, entry)) }
+      : { tone: 'info', text: `${text} Their final matches still to fence are forfeited to their opponents.` }
+    void context.refresh()
+  }
+
+  return { withdrawn, takenBack }
 }

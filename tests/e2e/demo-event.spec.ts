@@ -21,7 +21,7 @@ test('the published demo event has a finished sword-and-buckler pool phase and a
     expect(row.boutsFought).toBe(15)
     expect(row.survivalRate).toBeCloseTo(row.unharmed / 15, 10)
   }
-  const semis = sb.bracket.state.matches.filter((m: { name: string }) => m.name === 'Semifinal')
+  const semis = sb.finals.bracket.matches.filter((m: { name: string }) => m.name === 'Semifinal')
   expect(semis.map((m: { sides: { seed: number }[] }) => m.sides.map(s => s.seed))).toEqual([[1, 4], [2, 3]])
 })
 

@@ -3,7 +3,7 @@ import type { TestClub } from '../support/fixtures'
 import { makeClub, pool, tableCounts } from '../support/fixtures'
 import { Client } from '../support/http'
 import type { Fixture, PoolView } from '../support/tournament'
-import { afterblow, as, clean, double, drawPools, makeFixture, record, voided } from '../support/tournament'
+import { CHECKS, afterblow, as, clean, double, drawPools, makeFixture, makeRuleSet, record, voided } from '../support/tournament'
 
 let club: TestClub
 let other: TestClub
@@ -247,4 +247,86 @@ describe('listing matches and the schedule', () => {
     expect(during.data.rings[0].onDeck.matchId).toBe(second!.id)
     expect(during.data.rings[0].next.matchId).toBe(third!.id)
   })
+
+  it('gives every ring a timeline of its matches still to fence, in bout order, with estimated start and end', async () => {
+    const { f, pools } = await pooled()
+    const path = `/api/clubs/${club.id}/events/${f.eventId}/schedule`
+    const minute = 60_000
+    const ids = pools[0]!.matches.map(m => m.id)
+    const before = (await organizer.get(path)).data
+    expect(before.tournaments).toEqual([{ id: f.tournamentId, name: 'Sword and buckler', phase: 'pools', matchMinutes: 4.5 }])
+    const [ring1, ring2, ring3] = before.rings
+    expect(ring1.timeline.map((m: TimelineMatch) => m.matchId)).toEqual(ids)
+    expect(ring1.timeline.every((m: TimelineMatch) => m.status === 'pending')).toBe(true)
+    expect(ring1.timeline[0].sideA.name).toBe(pools[0]!.matches[0]!.sideA!.name)
+    // First hit, three bouts: 3 × 1.5 minutes a match, and a minute's changeover between matches.
+    expect(Date.parse(ring1.timeline[0].startsAt)).toBe(Date.parse(before.at))
+    for (const [i, m] of (ring1.timeline as TimelineMatch[]).entries()) {
+      expect(Date.parse(m.endsAt) - Date.parse(m.startsAt)).toBe(4.5 * minute)
+      if (i > 0) expect(Date.parse(m.startsAt) - Date.parse(ring1.timeline[i - 1].endsAt)).toBe(minute)
+    }
+    expect(ring1.end).toBe(ring1.timeline.at(-1).endsAt)
+    expect(before.end).toBe(ring1.end)
+    expect(ring1.finished).toBe(0)
+    expect([ring2, ring3].map(r => [r.timeline, r.end])).toEqual([[[], null], [[], null]])
+
+    // The first match under way keeps its place at the top; once finished it leaves the timeline.
+    const started = await record(scorekeeper, f.base, ids[0]!, [clean('a')], 0)
+    expect(started.status).toBe(201)
+    const during = (await organizer.get(path)).data.rings[0]
+    expect(during.timeline.map((m: TimelineMatch) => [m.matchId, m.status])).toEqual(ids.map((id, i) => [id, i === 0 ? 'underway' : 'pending']))
+    expect((await record(scorekeeper, f.base, ids[0]!, [clean('a'), clean('a')], started.data.match.version)).status).toBe(201)
+    const after = (await organizer.get(path)).data
+    expect(after.rings[0].timeline.map((m: TimelineMatch) => m.matchId)).toEqual(ids.slice(1))
+    expect(after.rings[0].finished).toBe(1)
+    expect(Date.parse(after.rings[0].timeline[0].startsAt)).toBe(Date.parse(after.at))
+  })
+
+  it('makes a ring wait for a fighter entered in two tournaments, and names the clash in words', async () => {
+    const { f, pools } = await pooled()
+    const shared = pools[0]!.fighters.find(x => x.name === 'Hedda Crane')!
+    // A second tournament in the same event, fenced in ring 2, with the same fighter and three more.
+    const second = await organizer.post(`/api/clubs/${club.id}/events/${f.eventId}/tournaments`, {
+      name: 'Longsword', weapon: 'longsword', ruleSetId: await makeRuleSet(organizer, club), poolSize: 4,
+    })
+    expect(second.status).toBe(201)
+    const base = `/api/clubs/${club.id}/events/${f.eventId}/tournaments/${second.data.id}`
+    const others = await Promise.all(['Ivo Penhallow', 'Lowdy Carne', 'Senara Bolitho'].map(async (name) => {
+      const res = await organizer.post(`/api/clubs/${club.id}/fighters`, { name, clubName: 'Old Mill Fencing School' })
+      if (res.status === 201) return res.data.id as number
+      return (await organizer.get(`/api/clubs/${club.id}/fighters?q=${encodeURIComponent(name)}`)).data.fighters[0].id as number
+    }))
+    for (const fighterId of [shared.fighterId, ...others]) {
+      const entry = await organizer.post(`${base}/entries`, { fighterId, seed: null })
+      expect(entry.status).toBe(201)
+      expect((await organizer.post(`${base}/entries/${entry.data.id}/check-in`, CHECKS)).status).toBe(200)
+    }
+    expect((await organizer.post(`${base}/phase`, { to: 'pools' })).status).toBe(200)
+    const drawn = await organizer.post(`${base}/pools/draw`, { drawKey: 'harvest' })
+    expect(drawn.status).toBe(201)
+    expect((await organizer.patch(`${base}/pools/${drawn.data.pools[0].id}`, { ringNumber: 2 })).status).toBe(200)
+
+    // In a pool of four every two positions meet in one round of the same number (1-4 2-3 1-3 2-4
+    // 3-4 1-2), and both rings keep pace until then: one ring has to wait for the shared fighter.
+    const res = await organizer.get(`/api/clubs/${club.id}/events/${f.eventId}/schedule`)
+    expect(res.status).toBe(200)
+    const { rings, conflicts } = res.data as { rings: { ringId: number, timeline: TimelineMatch[] }[], conflicts: Conflict[] }
+    expect(rings[0]!.timeline).toHaveLength(6)
+    expect(rings[1]!.timeline).toHaveLength(6)
+    const wait = conflicts.find(c => c.kind === 'fighter-waits')!
+    expect(wait).toMatchObject({ fighterId: shared.fighterId, fighterName: 'Hedda Crane' })
+    expect(wait.message).toContain(`waits about ${Math.round(wait.minutes)} min for Hedda Crane`)
+    expect(wait.message).toMatch(/Sword and buckler, pool 1/)
+    expect(wait.message).toMatch(/Longsword, pool 1/)
+    expect(wait.message).not.toMatch(/fighter \d|match \d/)
+    // The waiting match starts when the fighter's other match should end, plus 2 minutes to change rings.
+    const all = rings.flatMap(r => r.timeline)
+    const waiting = all.find(m => m.matchId === wait.matchId)!
+    const busy = all.find(m => m.matchId === wait.otherMatchId)!
+    expect(waiting.ringId).not.toBe(busy.ringId)
+    expect(Date.parse(waiting.startsAt) - Date.parse(busy.endsAt)).toBe(2 * 60_000)
+  })
 })
+
+interface TimelineMatch { matchId: number, ringId: number, status: string, startsAt: string, endsAt: string, sideA: { name: string } }
+interface Conflict { kind: string, matchId: number, otherMatchId: number, fighterId: number | null, fighterName: string | null, minutes: number, message: string }

@@ -1,13 +1,14 @@
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { planSchedule, ringQueues } from '#shared/tournament'
-import type { ScheduleMatch, ScheduledMatch } from '#shared/tournament'
+import type { ScheduleConflict, ScheduleMatch, ScheduledMatch } from '#shared/tournament'
 import type { FighterRef } from '~~/server/utils/matches'
 
 /**
- * What each ring fences now, on deck and next, estimated from this moment: every started
- * tournament of the event, pools in their rings and the finals in the first ring. Lengths are our
- * estimates (see `estimatedMinutes` in server/utils/matches.ts); a fighter entered in two
- * tournaments is one person, so a ring waits for them.
+ * What each ring fences now, on deck and next, and its whole timeline of matches still to fence,
+ * estimated from this moment: every started tournament of the event, pools in their rings and the
+ * finals in the first ring. Lengths are our estimates (see `estimatedMinutes` in
+ * server/utils/matches.ts); a fighter entered in two tournaments is one person, so a ring waits
+ * for them, and each such wait is a conflict named in words.
  */
 export default defineEventHandler(async (event) => {
   const { clubId, eventId } = validParams(event, eventParams)
@@ -57,8 +58,7 @@ export default defineEventHandler(async (event) => {
 
   const byId = new Map(known.map(match => [match.id, match]))
   const names = new Map(started.map(s => [s.id, s.name]))
-  const view = (scheduled: ScheduledMatch | null) => {
-    if (!scheduled) return null
+  const view = (scheduled: ScheduledMatch) => {
     const match = byId.get(Number(scheduled.id))!
     const side = (entryId: number) => {
       const ref = refs.get(entryId)!
@@ -78,10 +78,46 @@ export default defineEventHandler(async (event) => {
       endsAt: new Date(scheduled.end).toISOString(),
     }
   }
+  const planned = new Map(schedule.rings.flatMap(ring => ring.matches.map(match => [match.id, match] as const)))
+  const fighterNames = new Map([...refs.values()].map(ref => [ref.fighterId, ref.name]))
+  const label = (id: ScheduleConflict['matchId']) => {
+    const match = planned.get(id)
+    if (!match) return `match ${id}`
+    const v = view(match)
+    return `${v.sideA.name} v ${v.sideB.name} (${v.tournamentName}, ${v.poolNumber === null ? 'finals' : `pool ${v.poolNumber}`})`
+  }
+  // The planner's messages name ids; the organizer reads names.
+  const conflictMessage = (c: ScheduleConflict) => {
+    const fighter = c.fighterId === null ? null : fighterNames.get(c.fighterId) ?? `fighter ${c.fighterId}`
+    const minutes = `${Math.max(1, Math.round(c.minutes))} min`
+    if (c.kind === 'fighter-waits') {
+      return `Ring ${c.ringId} waits about ${minutes} for ${fighter} before ${label(c.matchId)}: they fence ${label(c.otherMatchId)} in ring ${c.otherRingId} first.`
+    }
+    if (c.kind === 'fighter-overlap') {
+      return `${fighter} is under way in two rings at once: ${label(c.otherMatchId)} in ring ${c.otherRingId} and ${label(c.matchId)} in ring ${c.ringId}.`
+    }
+    return `Ring ${c.ringId} has two matches under way at once: ${label(c.otherMatchId)} and ${label(c.matchId)}.`
+  }
+  const queues = new Map(ringQueues(schedule).map(queue => [queue.ringId, queue]))
   return {
-    rings: ringQueues(schedule).map(queue => ({ ...queue, now: view(queue.now), onDeck: view(queue.onDeck), next: view(queue.next) })),
-    conflicts: schedule.conflicts,
+    rings: schedule.rings.map((ring) => {
+      const queue = queues.get(ring.ringId)!
+      return {
+        ...queue,
+        now: queue.now && view(queue.now),
+        onDeck: queue.onDeck && view(queue.onDeck),
+        next: queue.next && view(queue.next),
+        // The match under way, then every pending one in the order the ring fences them.
+        timeline: ring.matches.map(match => view(match)),
+        finished: ring.finished.length,
+        end: ring.end === null ? null : new Date(ring.end).toISOString(),
+      }
+    }),
+    conflicts: schedule.conflicts.map(c => ({ ...c, fighterName: c.fighterId === null ? null : fighterNames.get(c.fighterId) ?? null, message: conflictMessage(c) })),
+    tournaments: started.map(s => ({ id: s.id, name: s.name, phase: s.phase, matchMinutes: minutes.get(s.id)! })),
     end: schedule.end === null ? null : new Date(schedule.end).toISOString(),
+    // The moment the estimates start from.
+    at: new Date(now).toISOString(),
     estimates: {
       firstHitMinutesPerBout: FIRST_HIT_MINUTES_PER_BOUT,
       pointsMinutesOverTimeLimit: POINTS_MINUTES_OVER_TIME_LIMIT,

@@ -1,3 +1,4 @@
+import { openFinalMatches } from '#shared/tournament'
 import type { FinalsFormat, TournamentPhase } from '#shared/schemas/tournament'
 import type { Bracket, BracketPlaces } from '#shared/tournament'
 
@@ -145,8 +146,8 @@ export interface FinalsResponse {
  * Final matches still to fence or to settle, as closing the tournament counts them: a bracket
  * match that ended level waits for the director's decision.
  */
-export function openFinalMatches(finals: Pick<FinalsResponse, 'format' | 'matches'>): number {
-  return finals.matches.filter(m => m.status !== 'forfeit' && !(m.status === 'finished' && (m.winner !== null || finals.format === 'round-robin'))).length
+export function openFinalMatchCount(finals: Pick<FinalsResponse, 'format' | 'matches'>): number {
+  return openFinalMatches(finals.format, finals.matches).length
 }
 
 /** The places as lines to show, e.g. First: Hedda Crane; names by entry id. */

@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray, isNotNull, or } from 'drizzle-orm'
 import type { Side } from '#shared/rules'
 import { MAX_ROUND_ROBIN_FINALISTS } from '#shared/schemas/tournament'
-import { advance, bracketPlaces, buildBracket, roundRobinFinal } from '#shared/tournament'
+import { advance, bracketPlaces, buildBracket, openFinalMatches, roundRobinFinal } from '#shared/tournament'
 import type { Bracket, BracketPlaces } from '#shared/tournament'
 import type { DbTx } from './events'
 
@@ -170,10 +170,10 @@ export async function finalsView(tx: DbTx, tournament: Tournament) {
   const rows = await tx.select().from(m)
     .where(and(eq(m.tournamentId, tournament.id), eq(m.stage, 'final'))).orderBy(asc(m.orderInPool))
   const matches = await matchSummaries(tx, tournament, rows)
-  const settled = matches.every(match => match.status === 'forfeit' || (match.status === 'finished' && match.winner !== null))
+  const settled = openFinalMatches(row.format, matches).length === 0
   if (row.format === 'round-robin') {
     const table = await finalTable(tx, tournament, row.field, rows)
-    const complete = table.complete && matches.every(match => match.status === 'forfeit' || match.status === 'finished')
+    const complete = table.complete && settled
     return { format: row.format, field: row.field, bracket: null, table, places: roundRobinPlaces(table.rows, complete), matches, complete }
   }
   const places = bracketPlaces(row.state!)

@@ -63,3 +63,5 @@ export type {
   SchedulePool,
   ScheduleProgress,
 } from './schedule'
+export { openFinalMatches } from './finals'
+export type { FinalMatchState } from './finals'

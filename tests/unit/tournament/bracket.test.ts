@@ -1,5 +1,6 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
+import type { FinalMatchState, Bracket } from '../../../shared/tournament'
 import {
   BRONZE_MATCH_ID,
   POOL_ORDER_TABLES,
@@ -8,6 +9,7 @@ import {
   bracketPlaces,
   bracketSize,
   buildBracket,
+  openFinalMatches,
   readyMatches,
   reopen,
   roundName,
@@ -15,7 +17,6 @@ import {
   seedOrder,
   toPairings,
 } from '../../../shared/tournament'
-import type { Bracket } from '../../../shared/tournament'
 
 /** Fighter ids for seeds 1..n: seed s is fighter 100 + s. */
 const field = (n: number) => Array.from({ length: n }, (_, i) => 101 + i)
@@ -219,5 +220,15 @@ describe('roundRobinFinal', () => {
   it('can use the Berger tables instead', () => {
     const ranked = [31, 17, 24, 9]
     expect(roundRobinFinal(ranked, 'berger')).toEqual(toPairings(bergerOrder(4), ranked))
+  })
+})
+
+describe('open final matches', () => {
+  const m = (status: FinalMatchState['status'], winner: FinalMatchState['winner'] = null): FinalMatchState => ({ status, winner })
+  it('counts a level bracket match as open until the director settles it, but not a round robin\'s draw', () => {
+    const matches = [m('finished', 'a'), m('finished', 'draw'), m('forfeit', 'b'), m('under-way'), m('scheduled')]
+    expect(openFinalMatches('bracket', matches)).toEqual([m('finished', 'draw'), m('under-way'), m('scheduled')])
+    expect(openFinalMatches('round-robin', matches)).toEqual([m('under-way'), m('scheduled')])
+    expect(openFinalMatches('bracket', [m('finished', 'b'), m('forfeit', 'a')])).toEqual([])
   })
 })

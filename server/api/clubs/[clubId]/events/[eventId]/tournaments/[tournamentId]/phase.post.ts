@@ -1,5 +1,6 @@
 import { and, count, eq } from 'drizzle-orm'
 import { nextPhase, phaseChangeSchema } from '#shared/schemas/tournament'
+import { openFinalMatches } from '#shared/tournament'
 
 export default defineEventHandler(async (event) => {
   const ids = validParams(event, tournamentParams)
@@ -38,7 +39,7 @@ export default defineEventHandler(async (event) => {
     if (to === 'finals') await startFinals(tx, tournament)
     if (to === 'done') {
       const finals = await finalsView(tx, tournament)
-      const open = finals.matches.filter(m => m.status !== 'forfeit' && !(m.status === 'finished' && (m.winner !== null || finals.format === 'round-robin')))
+      const open = openFinalMatches(finals.format, finals.matches)
       if (finals.format !== null && (open.length > 0 || !finals.complete)) {
         const level = open.filter(m => m.status === 'finished').length
         throw fieldError(409, 'to', open.length === 0

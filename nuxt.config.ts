@@ -51,6 +51,8 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-01-01',
   nitro: {
     experimental: { tasks: false },
+    // Scripts and styles go out gzip-compressed, made once at build time (an overlay loads quickly).
+    compressPublicAssets: { gzip: true, brotli: false },
   },
   vite: {
     optimizeDeps: { include: [] },

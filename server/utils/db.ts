@@ -1,3 +1,4 @@
+import os from 'node:os'
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../database/schema'
@@ -10,7 +11,23 @@ function createClient() {
   const pool = new pg.Pool({ connectionString: useRuntimeConfig().databaseUrl, max: 10 })
   // An idle client that loses its server (PostgreSQL restarted) must not crash the process.
   pool.on('error', err => console.error('[db] idle client error:', err.message))
+  if (process.env.UNSCATHED_ROLE === 'worker') pool.on('connect', client => void lowerPriority(client))
   return drizzle(pool, { schema })
+}
+
+// A worker's database work (the rings' snapshots, later the job queue) should give way to the
+// ring desks' as the worker process itself does: its server processes run at a lower priority
+// where the operating system lets this process change them (same user, or root).
+export const WORKER_NICENESS = 10
+
+async function lowerPriority(client: pg.PoolClient) {
+  try {
+    const { rows } = await client.query<{ pid: number }>('select pg_backend_pid() as pid')
+    os.setPriority(rows[0]!.pid, WORKER_NICENESS)
+  }
+  catch {
+    // Not allowed here: the worker's queries run at normal priority.
+  }
 }
 
 /** The one Drizzle client of this process. */

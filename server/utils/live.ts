@@ -1,8 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm'
+import type { RawQuery } from './rawSql'
 import type { MatchEntry, MatchState, RuleSet } from '#shared/rules'
 import type { LiveBout, LiveMatch, LiveMessage } from '#shared/live/types'
 import type { DbTx } from './events'
-import type { FighterRef } from './matches'
+import type { FighterRef, LockedMatch } from './matches'
 
 // The writing side of the live bus. A change to a match sends the match's new state on its
 // ring's stream in the same transaction (so the boards show a bout within milliseconds of the
@@ -101,53 +102,72 @@ export function liveMatch(ctx: LiveMatchContext, match: Match, refs: ReadonlyMap
 }
 
 /** Where a match is fenced and what it is called: its pool's number and ring, or its round in the finals. */
-export async function matchPlace(tx: DbTx, tournament: Tournament, match: Match) {
-  const [event] = await tx.select({ rings: schema.events.rings }).from(schema.events).where(eq(schema.events.id, tournament.eventId))
-  const rings = event?.rings ?? 1
+export async function matchPlace(tx: DbTx, tournament: Tournament, match: Match, rings: number) {
   if (match.poolId !== null) {
     const [pool] = await tx.select({ number: schema.pools.number, ringNumber: schema.pools.ringNumber }).from(schema.pools).where(eq(schema.pools.id, match.poolId))
     return { poolNumber: pool?.number ?? null, roundName: null, ring: ringOf(pool?.ringNumber ?? 1, rings) }
   }
-  const [finals] = await tx.select({ format: schema.brackets.format, state: schema.brackets.state }).from(schema.brackets).where(eq(schema.brackets.tournamentId, tournament.id))
-  const slot = finals?.state?.matches.find(m => m.id === match.bracketMatchKey)
-  return { poolNumber: null, roundName: finals?.format === 'round-robin' ? 'Round robin' : slot?.name ?? null, ring: ringOf(null, rings) }
+  return { poolNumber: null, roundName: await roundNameOf(tx, tournament.id, match), ring: ringOf(null, rings) }
 }
 
-/**
- * Sends one message on a ring's stream inside the caller's transaction: numbers it under the
- * ring's row lock, stores it for clients that reconnect, marks the ring for a new snapshot and
- * notifies every app process, all in one statement. Returns the message's number.
- */
-export async function publishLive(tx: DbTx, eventId: number, ring: number, message: Unsequenced, options: { dirty?: boolean } = {}): Promise<number> {
-  const payload = JSON.stringify(message)
-  const dirty = options.dirty ?? true
-  const result = await tx.execute<{ seq: number }>(sql`
-    with r as (
-      insert into ring_states (event_id, ring_number, seq) values (${eventId}, ${ring}, 1)
+// The bus's own part of a statement; `$n` are offset by the parameters of the caller's writes.
+// With `gate` (a CTE of the caller's), the message is sent only when that CTE returns a row.
+function liveText(at: number, gate?: string) {
+  const p = (n: number) => `$${at + n}`
+  return `r as (
+      insert into ring_states (event_id, ring_number, seq) select ${p(1)}, ${p(2)}, 1${gate ? ` from ${gate}` : ''}
       on conflict (event_id, ring_number) do update set seq = ring_states.seq + 1, updated_at = now()
       returning seq
     ), e as (
       insert into live_events (event_id, ring_number, seq, kind, payload)
-      select ${eventId}, ${ring}, r.seq, ${message.kind}, jsonb_set(${payload}::jsonb, '{seq}', to_jsonb(r.seq)) from r
+      select ${p(1)}, ${p(2)}, r.seq, ${p(3)}, jsonb_set(${p(4)}::jsonb, '{seq}', to_jsonb(r.seq)) from r
       returning seq, payload::text as body
     ), d as (
-      insert into live_dirty (event_id, ring_number) select ${eventId}, ${ring} where ${dirty}
+      insert into live_dirty (event_id, ring_number) select ${p(1)}, ${p(2)} from r where ${p(5)}::boolean
       on conflict do nothing
     )
     select e.seq,
-      pg_notify(${LIVE_CHANNEL}, concat_ws(':', ${eventId}::text, ${ring}::text, e.seq::text, ${message.kind}::text,
+      pg_notify('${LIVE_CHANNEL}', concat_ws(':', ${p(1)}::text, ${p(2)}::text, e.seq::text, ${p(3)}::text,
         case when length(e.body) < ${NOTIFY_INLINE_LIMIT} then e.body end)),
-      case when ${dirty} then pg_notify(${DIRTY_CHANNEL}, ${`${eventId}:${ring}`}) end
-    from e`)
-  return Number(result.rows[0]!.seq)
+      case when ${p(5)}::boolean then pg_notify('${DIRTY_CHANNEL}', ${p(1)}::text || ':' || ${p(2)}::text) end
+    from e`
 }
 
-/** The match's new state on its ring's stream, in the caller's transaction. */
-export async function publishMatch(tx: DbTx, tournament: Tournament, match: Match, refs: ReadonlyMap<number, FighterRef>, log: readonly MatchEntry[], state: MatchState) {
-  const place = await matchPlace(tx, tournament, match)
-  const live = liveMatch({ tournament, ruleSet: rulesOf(tournament), ...place }, match, refs, log, state)
-  await publishLive(tx, tournament.eventId, place.ring, { kind: 'match', ring: place.ring, match: live, at: new Date().toISOString() })
-  return live
+const LIVE_ALONE = { name: 'live_publish', text: `with ${liveText(0)}` }
+
+/**
+ * Sends one message on a ring's stream inside the caller's transaction: numbers it under the
+ * ring's row lock, stores it for clients that reconnect, marks the ring for a new snapshot and
+ * notifies every app process, all in one statement. `before` puts the caller's own writes (CTEs
+ * of a prepared statement) into the same statement, so a change and its message cost one round
+ * trip. Returns the message's number.
+ */
+export async function publishLive(tx: DbTx, eventId: number, ring: number, message: Unsequenced, options: { dirty?: boolean, before?: RawQuery & { gate?: string } } = {}): Promise<number | null> {
+  const values = [eventId, ring, message.kind, JSON.stringify(message), options.dirty ?? true]
+  const { before } = options
+  const query = before
+    ? { name: `${before.name}_live`, text: `with ${before.text}, ${liveText(before.values.length, before.gate)}`, values: [...before.values, ...values] }
+    : { ...LIVE_ALONE, values }
+  const [row] = await rawQuery<{ seq: number }>(tx, query)
+  // No row: the caller's gate let nothing through.
+  return row ? Number(row.seq) : null
+}
+
+/** The name of a final match's round ("Semifinal", "Bronze match"), or "Round robin". */
+async function roundNameOf(tx: DbTx, tournamentId: number, match: Match): Promise<string | null> {
+  if (match.stage !== 'final') return null
+  const [finals] = await tx.select({ format: schema.brackets.format, state: schema.brackets.state }).from(schema.brackets).where(eq(schema.brackets.tournamentId, tournamentId))
+  if (finals?.format === 'round-robin') return 'Round robin'
+  return finals?.state?.matches.find(m => m.id === match.bracketMatchKey)?.name ?? null
+}
+
+/** The match's new state on its ring's stream, in the caller's transaction (and statement, with `before`). */
+export async function publishMatch(tx: DbTx, locked: LockedMatch, match: Match, log: readonly MatchEntry[], state: MatchState, before?: RawQuery & { gate?: string }) {
+  const { tournament, place } = locked
+  const ctx = { tournament, ruleSet: rulesOf(tournament), poolNumber: place.poolNumber, ring: place.ring, roundName: await roundNameOf(tx, tournament.id, match) }
+  const live = liveMatch(ctx, match, locked.sides, log, state)
+  const seq = await publishLive(tx, tournament.eventId, place.ring, { kind: 'match', ring: place.ring, match: live, at: new Date().toISOString() }, { before })
+  return { live, sent: seq !== null }
 }
 
 /**

@@ -1,4 +1,5 @@
 import type { ServerResponse } from 'node:http'
+import type { Socket } from 'node:net'
 import { and, asc, desc, eq, gt, lte, sql } from 'drizzle-orm'
 import pg from 'pg'
 import type { LiveMessage } from '#shared/live/types'
@@ -16,6 +17,8 @@ interface Subscriber {
   eventId: number
   scope: Scope
   res: ServerResponse
+  /** Messages go straight to the socket: the same bytes for every client, one write each. */
+  socket: Socket
   /** The last message sent, per ring. */
   positions: Map<number, number>
   /** Live messages that arrived while the backlog was being sent. */
@@ -34,9 +37,9 @@ const HARD_LIMIT_BYTES = 32 * 1024 * 1024
 // Proxies and browsers close a stream that stays silent for long; a comment line every 15 s keeps it open.
 const HEARTBEAT_MS = 15_000
 const SWEEP_MS = 2_000
-// How long a ring's snapshot waits for more changes: bouts on one ring are seconds apart, so the
-// boards see every one; a burst (a result entered after the fact) makes one snapshot.
-const SNAPSHOT_DELAY_MS = 60
+// A ring's snapshot waits for the changes to pause this long, and never longer than the other.
+const SNAPSHOT_QUIET_MS = 100
+const SNAPSHOT_MAX_WAIT_MS = 5000
 // Messages kept per ring beyond its latest snapshot, for clients that reconnect.
 const KEEP_MESSAGES = 500
 const RETRY = Buffer.from('retry: 1000\n\n')
@@ -76,17 +79,24 @@ export class LiveHub {
   private sweeping = false
   private sweepAgain = false
   private sweepTimer: ReturnType<typeof setTimeout> | null = null
+  private sweepDue: number | null = null
   private closed = false
   private chains = new Map<string, Promise<void>>()
 
   private readonly heartbeatMs: number
   private readonly maxBuffered: number
   private readonly slowMs: number
+  private readonly snapshots: boolean
 
-  constructor(private readonly databaseUrl: string, options: { heartbeatMs?: number, maxBufferedBytes?: number, slowMs?: number } = {}) {
+  /**
+   * `snapshots: false` leaves the rings' snapshots to a worker process (UNSCATHED_ROLE=worker), so
+   * that an app process spends its time on requests and on passing messages on.
+   */
+  constructor(private readonly databaseUrl: string, options: { heartbeatMs?: number, maxBufferedBytes?: number, slowMs?: number, snapshots?: boolean } = {}) {
     this.heartbeatMs = options.heartbeatMs ?? HEARTBEAT_MS
     this.maxBuffered = options.maxBufferedBytes ?? MAX_BUFFERED_BYTES
     this.slowMs = options.slowMs ?? SLOW_MS
+    this.snapshots = options.snapshots ?? true
   }
 
   /** Starts listening and the periodic work; safe to call more than once. */
@@ -94,7 +104,7 @@ export class LiveHub {
     if (!this.listening) {
       this.listening = this.connect()
       this.timers.push(setInterval(() => this.heartbeat(), this.heartbeatMs))
-      this.timers.push(setInterval(() => void this.sweep(), SWEEP_MS))
+      if (this.snapshots) this.timers.push(setInterval(() => void this.sweep(), SWEEP_MS))
       this.timers.push(setInterval(() => this.dropSlow(), Math.min(1000, this.slowMs)))
       for (const timer of this.timers) timer.unref()
     }
@@ -105,7 +115,7 @@ export class LiveHub {
     this.closed = true
     for (const timer of this.timers) clearInterval(timer)
     if (this.sweepTimer) clearTimeout(this.sweepTimer)
-    for (const set of this.subscribers.values()) for (const sub of set) sub.res.end()
+    for (const set of this.subscribers.values()) for (const sub of set) sub.socket.end()
     this.subscribers.clear()
     await this.listener?.end().catch(() => {})
   }
@@ -119,7 +129,7 @@ export class LiveHub {
     client.on('end', () => this.reconnect(client))
     client.on('notification', (n) => {
       if (n.channel === LIVE_CHANNEL) this.onMessage(n.payload ?? '')
-      else if (n.channel === DIRTY_CHANNEL) this.requestSweep()
+      else if (n.channel === DIRTY_CHANNEL && this.snapshots) this.requestSweep()
       else if (n.channel === TOKEN_CHANNEL) this.onTokenRotated(n.payload ?? '')
     })
     await client.connect()
@@ -130,7 +140,7 @@ export class LiveHub {
       const rings = new Set([...set].flatMap(s => (s.scope.kind === 'ring' ? [s.scope.ring] : s.scope.rings)))
       for (const ring of rings) this.catchUp(eventId, ring, null)
     }
-    void this.sweep()
+    if (this.snapshots) void this.sweep()
   }
 
   private reconnect(client: pg.Client) {
@@ -200,9 +210,10 @@ export class LiveHub {
   private deliver(eventId: number, ring: number, seq: number, kind: string, body: string) {
     const set = this.subscribers.get(eventId)
     if (!set) return
-    // One buffer for every overlay of the ring; event streams add their own id line.
+    // One buffer for every overlay of the ring; event streams carry every ring's position in
+    // their id, and the clients that are up to date share one buffer for it too.
     let ringFrame: Buffer | null = null
-    let data: Buffer | null = null
+    let frames: Map<string, Buffer> | null = null
     for (const sub of set) {
       if (sub.scope.kind === 'ring' ? sub.scope.ring !== ring : !sub.scope.rings.includes(ring)) continue
       if (sub.waiting) {
@@ -216,39 +227,36 @@ export class LiveHub {
         this.write(sub, ringFrame)
       }
       else {
-        data ??= Buffer.from(`event: ${kind}\ndata: ${body}\n\n`)
-        this.write(sub, Buffer.from(`id: ${eventStreamId(sub.positions)}\n`), data)
+        const id = eventStreamId(sub.positions)
+        frames ??= new Map()
+        let shared = frames.get(id)
+        if (!shared) frames.set(id, shared = frame(id, kind, body))
+        this.write(sub, shared)
       }
     }
   }
 
-  private write(sub: Subscriber, ...chunks: Buffer[]) {
-    const res = sub.res
-    if (res.destroyed || res.writableEnded) return
-    if (res.writableLength > HARD_LIMIT_BYTES) {
+  private write(sub: Subscriber, bytes: Buffer) {
+    const socket = sub.socket
+    if (socket.destroyed || socket.writableEnded) return
+    if (socket.writableLength > HARD_LIMIT_BYTES) {
       this.drop(sub)
       return
     }
-    if (chunks.length === 1) {
-      res.write(chunks[0])
-      return
-    }
-    res.cork()
-    for (const chunk of chunks) res.write(chunk)
-    process.nextTick(() => res.uncork())
+    socket.write(bytes)
   }
 
   /** A client that cannot take what it is sent goes; the server and the other clients carry on. */
   private drop(sub: Subscriber) {
     this.unsubscribe(sub)
-    sub.res.destroy()
+    sub.socket.destroy()
   }
 
   private dropSlow() {
     const now = Date.now()
     for (const set of this.subscribers.values()) {
       for (const sub of set) {
-        if (sub.res.writableLength <= this.maxBuffered) {
+        if (sub.socket.writableLength <= this.maxBuffered) {
           sub.slowSince = null
           continue
         }
@@ -267,7 +275,7 @@ export class LiveHub {
     for (const sub of this.subscribers.get(eventId!) ?? []) {
       if (sub.token !== null && sub.scope.kind === 'ring' && sub.scope.ring === ring) {
         this.unsubscribe(sub)
-        sub.res.end()
+        sub.socket.end()
       }
     }
   }
@@ -281,15 +289,21 @@ export class LiveHub {
    */
   async stream(res: ServerResponse, eventId: number, scope: Scope, positions: Map<number, number>, token: string | null = null): Promise<void> {
     await this.start()
+    const socket = res.socket
+    if (!socket) return
+    // No chunked framing: the body runs until the connection closes, as a stream of events may,
+    // and every client gets exactly the bytes of a message, written once to its socket.
+    res.removeHeader('transfer-encoding')
     res.writeHead(200, {
       'content-type': 'text/event-stream; charset=utf-8',
       'cache-control': 'no-cache, no-transform',
-      'connection': 'keep-alive',
+      'connection': 'close',
       'x-accel-buffering': 'no',
     })
-    res.write(RETRY)
-    res.socket?.setNoDelay(true)
-    const sub: Subscriber = { eventId, scope, res, positions: new Map(positions), waiting: [], token, slowSince: null }
+    res.flushHeaders()
+    socket.setNoDelay(true)
+    socket.write(RETRY)
+    const sub: Subscriber = { eventId, scope, res, socket, positions: new Map(positions), waiting: [], token, slowSince: null }
     let set = this.subscribers.get(eventId)
     if (!set) this.subscribers.set(eventId, set = new Set())
     set.add(sub)
@@ -310,7 +324,7 @@ export class LiveHub {
     catch (err) {
       console.error('[live] backlog failed:', (err as Error).message)
       this.unsubscribe(sub)
-      res.destroy()
+      socket.destroy()
     }
     return closed
   }
@@ -380,13 +394,20 @@ export class LiveHub {
     })
   }
 
-  /** Sweeps a moment after the first mark, so that a burst of changes makes one snapshot. */
+  /**
+   * Sweeps once the marks have been quiet for a moment, and at the latest five seconds after
+   * the first: a bout every few seconds gets its own snapshot, a burst (a result entered after the
+   * fact, a busy ring) makes one.
+   */
   private requestSweep() {
-    if (this.sweepTimer) return
+    const now = Date.now()
+    this.sweepDue ??= now + SNAPSHOT_MAX_WAIT_MS
+    if (this.sweepTimer) clearTimeout(this.sweepTimer)
     this.sweepTimer = setTimeout(() => {
       this.sweepTimer = null
+      this.sweepDue = null
       void this.sweep()
-    }, SNAPSHOT_DELAY_MS)
+    }, Math.max(0, Math.min(SNAPSHOT_QUIET_MS, this.sweepDue - now)))
   }
 
   /** Makes a snapshot for every ring marked out of date, oldest first. One sweep at a time per process. */
@@ -427,6 +448,15 @@ export class LiveHub {
 // The first key of the advisory locks that claim a ring's snapshot.
 const LIVE_LOCK_SPACE = 7301
 
+/**
+ * What this process does: `web` answers requests and passes live messages on, `worker` does the
+ * background work (the rings' snapshots), `all` (the default, one process alone) both.
+ */
+export function serverRole(): 'web' | 'worker' | 'all' {
+  const role = process.env.UNSCATHED_ROLE
+  return role === 'web' || role === 'worker' ? role : 'all'
+}
+
 let hub: LiveHub | null = null
 
 /** The live hub of this process. */
@@ -437,6 +467,7 @@ export function useLiveHub(): LiveHub {
     heartbeatMs: number(process.env.UNSCATHED_LIVE_HEARTBEAT_MS),
     maxBufferedBytes: number(process.env.UNSCATHED_LIVE_MAX_BUFFER),
     slowMs: number(process.env.UNSCATHED_LIVE_SLOW_MS),
+    snapshots: serverRole() !== 'web',
   })
   return hub
 }

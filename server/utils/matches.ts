@@ -72,7 +72,7 @@ export async function matchLogs(db: DbTx, matchIds: number[]): Promise<Map<numbe
   return logs
 }
 
-export function payloads(log: readonly StoredEntry[]): MatchEntry[] {
+export function payloads(log: readonly Pick<StoredEntry, 'payload'>[]): MatchEntry[] {
   return log.map(row => row.payload)
 }
 
@@ -117,28 +117,112 @@ export async function matchSummaries(db: DbTx, tournament: Tournament, rows: rea
   return rows.map(m => matchSummary(m, known, deriveMatch(ruleSet, payloads(logs.get(m.id)!))))
 }
 
-/**
- * The tournament of a match route, held with a share lock until the transaction ends: matches
- * of one tournament are recorded side by side, while a draw, a move or a phase change (which
- * take the row for update) waits for them, and they for it.
- */
-export async function shareTournament(db: DbTx, ids: { clubId: number, eventId: number, tournamentId: number }) {
-  const t = schema.tournaments
-  const e = schema.events
-  const [row] = await db.select({ tournament: t, event: e }).from(t).innerJoin(e, eq(e.id, t.eventId))
-    .where(and(eq(t.id, ids.tournamentId), eq(t.eventId, ids.eventId), eq(e.clubId, ids.clubId)))
-    .for('share', { of: t })
-  if (!row) throw notFoundError('Tournament')
-  return row
-}
-
-/** A match of the tournament; with `lock`, its row is held until the transaction ends. */
-export async function findMatch(db: DbTx, tournamentId: number, matchId: number, options: { lock?: boolean } = {}) {
+/** A match of the tournament, read without a lock. */
+export async function findMatch(db: DbTx, tournamentId: number, matchId: number) {
   const m = schema.matches
-  const query = db.select().from(m).where(and(eq(m.id, matchId), eq(m.tournamentId, tournamentId)))
-  const [match] = options.lock ? await query.for('update') : await query
+  const [match] = await db.select().from(m).where(and(eq(m.id, matchId), eq(m.tournamentId, tournamentId)))
   if (!match) throw notFoundError('Match')
   return match
+}
+
+export interface LockedMatch {
+  tournament: Tournament
+  /** The event's number of rings. */
+  rings: number
+  match: Match
+  /** Its pool's number and the ring it is fenced in. */
+  place: { poolNumber: number | null, ring: number }
+  /** The two fighters, by entry id. */
+  sides: Map<number, FighterRef>
+}
+
+type LogRow = Pick<StoredEntry, 'id' | 'seq' | 'payload'>
+
+const sideColumns = (side: 'a' | 'b') => `${side}e.id as "${side}_entryId", ${side}f.id as "${side}_fighterId", ${side}f.name as "${side}_name",
+  ${side}f.club_name as "${side}_clubName", ${side}e.seed as "${side}_seed", ${side}e.status as "${side}_status"`
+
+// A match with its tournament, ring, pool and fighters in one statement, prepared once per
+// connection (rawSql.ts). The tournament comes first in FROM, so that with locks its row is
+// locked before the match's, the order every other writer takes them in.
+const MATCH_CONTEXT = `select ${columnsOf(schema.tournaments, 't', 't_')}, e.rings as "rings",
+      ${columnsOf(schema.matches, 'm', 'm_')}, p.number as "poolNumber", p.ring_number as "poolRing",
+      ${sideColumns('a')}, ${sideColumns('b')}`
+const MATCH_FROM = `from tournaments t
+    join events e on e.id = t.event_id
+    join matches m on m.tournament_id = t.id
+    left join pools p on p.id = m.pool_id
+    left join entries ae on ae.id = m.side_a_entry left join fighters af on af.id = ae.fighter_id
+    left join entries be on be.id = m.side_b_entry left join fighters bf on bf.id = be.fighter_id
+    where t.id = $1 and t.event_id = $2 and e.club_id = $3 and m.id = $4`
+const LOCK_MATCH = { name: 'match_lock', text: `${MATCH_CONTEXT} ${MATCH_FROM} for share of t for update of m` }
+// Without locks, and with the log read in the same snapshot unless the caller has it for this version already.
+const READ_MATCH = {
+  name: 'match_read',
+  text: `${MATCH_CONTEXT}, case when m.version = $5 then null else (
+      select coalesce(json_agg(json_build_object('id', x.id, 'seq', x.seq, 'payload', x.payload) order by x.seq), '[]'::json)
+      from match_entries x where x.match_id = m.id) end as "log"
+    ${MATCH_FROM}`,
+}
+
+type MatchIds = { clubId: number, eventId: number, tournamentId: number, matchId: number }
+
+async function matchContext(tx: DbTx, ids: MatchIds, query: { name: string, text: string }, extra: unknown[] = []) {
+  const [found] = await rawQuery<Record<string, unknown>>(tx, { ...query, values: [ids.tournamentId, ids.eventId, ids.clubId, ids.matchId, ...extra] })
+  if (!found) {
+    // Which of the two is missing, for the message.
+    await findTournament(tx, ids)
+    throw notFoundError('Match')
+  }
+  const tournament = unprefix<Tournament>(found, 't_')
+  const match = unprefix<Match>(found, 'm_')
+  const rings = found.rings as number
+  const sides = new Map<number, FighterRef>()
+  for (const side of ['a_', 'b_']) {
+    const ref = unprefix<FighterRef>(found, side)
+    if (ref.entryId !== null) sides.set(ref.entryId, ref)
+  }
+  const poolRing = found.poolRing as number | null
+  const context: LockedMatch = {
+    tournament,
+    rings,
+    match,
+    place: { poolNumber: found.poolNumber as number | null, ring: ringOf(match.poolId === null ? null : poolRing ?? 1, rings) },
+    sides,
+  }
+  return { context, log: found.log as LogRow[] | null | undefined }
+}
+
+/**
+ * A match route's match with all it needs, locked until the transaction ends: the tournament
+ * with a share lock, so that matches of one tournament are recorded side by side while a draw, a
+ * move or a phase change (which take its row for update) waits for them, and the match for update.
+ */
+export async function lockMatch(tx: DbTx, ids: MatchIds): Promise<LockedMatch> {
+  return (await matchContext(tx, ids, LOCK_MATCH)).context
+}
+
+// The logs of the matches this process wrote last, by match id and version. Every change of a
+// match bumps its version, so a version names one log for good: the next bout of the same match
+// finds its log here instead of reading it again. Filled only after the commit.
+const recentLogs = new Map<number, { version: number, log: LogRow[] }>()
+const RECENT_LOGS = 256
+
+function rememberLog(matchId: number, version: number, log: LogRow[]) {
+  recentLogs.delete(matchId)
+  if (recentLogs.size >= RECENT_LOGS) recentLogs.delete(recentLogs.keys().next().value!)
+  recentLogs.set(matchId, { version, log })
+}
+
+/** The match and its log as of one snapshot, without locks (the log from memory when this process has it). */
+async function readMatch(db: DbTx, ids: MatchIds): Promise<{ context: LockedMatch, log: LogRow[] }> {
+  const known = recentLogs.get(ids.matchId)
+  const { context, log } = await matchContext(db, ids, READ_MATCH, [known?.version ?? -1])
+  return { context, log: log ?? known!.log }
+}
+
+const MATCH_LOG = {
+  name: 'match_log',
+  text: 'select id, seq, payload from match_entries where match_id = $1 order by seq',
 }
 
 /** Pool matches are fenced in the pools phase, final matches in the finals. */
@@ -208,21 +292,19 @@ export interface AppendResult {
   duplicates: string[]
 }
 
+type AppendInput = { expectedVersion: number, entries: MatchEntry[] }
+
 /**
- * Appends entries to a locked match: ids it already holds (or repeated in the request) are
- * duplicates and skipped; every new entry must be accepted by the engine on the state before it;
- * nothing is stored when any one is refused. A finished final match moves its winner on.
+ * What appending would do, checked against the log it was read with: ids the log already holds
+ * (or repeated in the request) are duplicates and skipped; every new entry must be accepted by the
+ * engine on the state before it; any refusal throws and nothing is written. `write` is null when
+ * everything was a duplicate.
  */
-export async function appendEntries(
-  tx: DbTx,
-  tournament: Tournament,
-  match: Match,
-  input: { expectedVersion: number, entries: MatchEntry[] },
-  userId: number,
-): Promise<AppendResult> {
+function planAppend(context: LockedMatch, log: readonly LogRow[], input: AppendInput, userId: number) {
+  const { tournament, match, sides: refs } = context
+  requireMatchPhase(tournament, match, 'recording entries')
+  requireBothSides(match)
   const ruleSet = rulesOf(tournament)
-  const refs = await fighterRefs(tx, tournament.id)
-  const log = (await matchLogs(tx, [match.id])).get(match.id)!
   const known = new Set(log.map(row => row.id))
   const fresh: { index: number, entry: MatchEntry }[] = []
   const duplicates: string[] = []
@@ -236,7 +318,7 @@ export async function appendEntries(
   })
   const before = deriveMatch(ruleSet, payloads(log))
   if (fresh.length === 0) {
-    return { match: matchSummary(match, refs, before), state: before, stored: [], duplicates }
+    return { answer: { match: matchSummary(match, refs, before), state: before, stored: [], duplicates }, write: null }
   }
 
   for (const { index, entry } of fresh) {
@@ -264,25 +346,79 @@ export async function appendEntries(
   }
 
   const now = new Date()
-  await tx.insert(schema.matchEntries).values(fresh.map(({ entry }, k) => ({
-    id: entry.id,
-    matchId: match.id,
-    seq: log.length + k + 1,
-    payload: entry,
-    recordedBy: userId,
-    recordedAt: now,
-  })))
-  const [updated] = await tx.update(schema.matches).set({
+  const updated: Match = {
+    ...match,
     version: match.version + 1,
     status: state.finished ? 'finished' : 'under-way',
     startedAt: match.startedAt ?? now,
     finishedAt: state.finished ? now : null,
-  }).where(eq(schema.matches.id, match.id)).returning()
-  if (state.finished && match.stage === 'final' && (state.result === 'a' || state.result === 'b')) {
-    await advanceFinal(tx, tournament.id, updated!, state.result)
   }
-  await publishMatch(tx, tournament, updated!, refs, entries, state)
-  return { match: matchSummary(updated!, refs, state), state, stored: fresh.map(f => f.entry.id), duplicates }
+  const rows = fresh.map(({ entry }, k) => ({ id: entry.id, seq: log.length + k + 1, payload: entry }))
+  // The entries and the match's new version, status and times, written only if the match is
+  // still at the version they were planned on and its tournament still in the right phase.
+  const statement = {
+    name: 'match_append',
+    gate: 'upd',
+    text: `t as (
+        select id from tournaments where id = $9 and phase = $10::tournament_phase for share
+      ), upd as (
+        update matches set version = $5, status = $6::match_status, started_at = $7::timestamptz, finished_at = $8::timestamptz
+        where id = $1 and version = $11 and exists (select 1 from t)
+        returning id
+      ), ins as (
+        insert into match_entries (id, match_id, seq, payload, recorded_by, recorded_at)
+        select x.id, $1, x.seq, x.payload, $2, $3::timestamptz
+        from upd, jsonb_to_recordset($4::jsonb) as x(id text, seq int, payload jsonb)
+      )`,
+    values: [match.id, userId, now.toISOString(), JSON.stringify(rows), updated.version, updated.status,
+      updated.startedAt!.toISOString(), updated.finishedAt?.toISOString() ?? null,
+      tournament.id, match.stage === 'pool' ? 'pools' : 'finals', match.version],
+  }
+  return {
+    answer: { match: matchSummary(updated, refs, state), state, stored: fresh.map(f => f.entry.id), duplicates },
+    write: { statement, updated, entries, state, log: [...log, ...rows] },
+  }
+}
+
+/**
+ * Appends a desk's entries to a match's append-only log. A pool match takes one statement after
+ * one read, without holding locks in between: the write goes through only if the match is still
+ * at the version the entries were checked on (and the tournament in its pools), otherwise the
+ * match is read again and the desk told what happened (a resend is answered as duplicates, a
+ * stale view with 409). A final match that ends moves the bracket on in the same transaction,
+ * with the rows locked from the start.
+ */
+export async function appendEntries(ids: MatchIds, input: AppendInput, userId: number): Promise<AppendResult> {
+  const db = useDb()
+  const first = await readMatch(db, ids)
+  if (first.context.match.stage === 'final') {
+    return db.transaction(async (tx) => {
+      const context = await lockMatch(tx, ids)
+      const log = await rawQuery<LogRow>(tx, { ...MATCH_LOG, values: [context.match.id] })
+      const plan = planAppend(context, log, input, userId)
+      if (plan.write) {
+        const { statement, updated, entries, state } = plan.write
+        await rawQuery(tx, { ...statement, name: `${statement.name}_alone`, text: `with ${statement.text} select 1` })
+        if (state.finished && (state.result === 'a' || state.result === 'b')) await advanceFinal(tx, context.tournament.id, updated, state.result)
+        await publishMatch(tx, context, updated, entries, state)
+      }
+      return plan.answer
+    })
+  }
+  for (const attempt of [1, 2]) {
+    const { context, log } = attempt === 1 ? first : await readMatch(db, ids)
+    const plan = planAppend(context, log, input, userId)
+    if (!plan.write) return plan.answer
+    const { statement, updated, entries, state } = plan.write
+    const { sent } = await publishMatch(db, context, updated, entries, state, statement)
+    if (sent) {
+      rememberLog(updated.id, updated.version, plan.write.log)
+      return plan.answer
+    }
+    // Another desk (or the same one, resending) got there first, or the phase changed: read
+    // again and answer from what is stored now.
+  }
+  throw conflictError('The match changed while the entries were being saved; refresh and send them again')
 }
 
 // ——— the schedule's estimates ———

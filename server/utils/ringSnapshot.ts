@@ -163,14 +163,14 @@ export async function ringSnapshot(tx: DbTx, eventId: number, ring: number): Pro
     if (!match) return null
     const tournament = byTournament.get(match.tournamentId)!
     const log = payloads(logs.get(match.id) ?? [])
-    const place = await matchPlace(tx, tournament, match)
+    const place = await matchPlace(tx, tournament, match, event.rings)
     return liveMatch({ tournament, ruleSet: rulesOf(tournament), ...place }, match, await refsOf(tournament.id), log, deriveMatch(rulesOf(tournament), log))
   }
   const card = async (match: Match | undefined): Promise<LiveCard | null> => {
     if (!match) return null
     const tournament = byTournament.get(match.tournamentId)!
     const refs = await refsOf(tournament.id)
-    const place = await matchPlace(tx, tournament, match)
+    const place = await matchPlace(tx, tournament, match, event.rings)
     return {
       id: match.id,
       tournamentName: tournament.name,

@@ -34,7 +34,7 @@ export default defineEventHandler(async (event) => {
       if (match.sideAEntry === null || match.sideBEntry === null) throw fieldError(409, 'matchId', 'This final match is waiting for the winner of an earlier match')
       if (match.status === 'finished' || match.status === 'forfeit') throw fieldError(409, 'matchId', 'This match is over')
       if (match.stage === 'pool' ? tournament.phase !== 'pools' : tournament.phase !== 'finals') throw fieldError(409, 'matchId', 'This match is not being fenced in the current phase')
-      const place = await matchPlace(tx, tournament, match)
+      const place = await matchPlace(tx, tournament, match, row.rings)
       if (place.ring !== ids.ring) throw fieldError(409, 'matchId', `This match is fenced in ring ${place.ring}`)
     }
     const r = schema.ringStates

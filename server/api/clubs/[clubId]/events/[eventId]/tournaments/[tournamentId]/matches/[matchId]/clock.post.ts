@@ -24,15 +24,15 @@ export default defineEventHandler(async (event) => {
   await requireClubRole(event, ids.clubId, ['organizer', 'scorekeeper'])
   const input = await validBody(event, clockSchema)
   return useDb().transaction(async (tx) => {
-    const { tournament } = await shareTournament(tx, ids)
-    const match = await findMatch(tx, tournament.id, ids.matchId, { lock: true })
+    const locked = await lockMatch(tx, ids)
+    const { tournament, match } = locked
     requireMatchPhase(tournament, match, 'running the clock')
     requireBothSides(match)
     const ruleSet = rulesOf(tournament)
     if (ruleSet.format !== 'points') throw fieldError(409, 'action', 'The first-hit format has no match clock')
     const log = (await matchLogs(tx, [match.id])).get(match.id)!
     const state = deriveMatch(ruleSet, payloads(log))
-    const refs = await fighterRefs(tx, tournament.id)
+    const refs = locked.sides
     if (match.version !== input.expectedVersion) {
       throw createError({
         statusCode: 409,
@@ -64,7 +64,7 @@ export default defineEventHandler(async (event) => {
       status: match.status === 'scheduled' ? 'under-way' : match.status,
       startedAt: match.startedAt ?? now,
     }).where(eq(schema.matches.id, match.id)).returning()
-    const live = await publishMatch(tx, tournament, updated!, refs, payloads(log), state)
+    const { live } = await publishMatch(tx, locked, updated!, payloads(log), state)
     return { match: matchSummary(updated!, refs, state), clock: live.clock, serverTime: now.toISOString() }
   })
 })

@@ -16,8 +16,8 @@ export default defineEventHandler(async (event) => {
   await requireClubRole(event, ids.clubId, ['organizer'])
   const { side, reason } = await validBody(event, forfeitSchema)
   return useDb().transaction(async (tx) => {
-    const { tournament } = await shareTournament(tx, ids)
-    const match = await findMatch(tx, tournament.id, ids.matchId, { lock: true })
+    const locked = await lockMatch(tx, ids)
+    const { tournament, match } = locked
     requireMatchPhase(tournament, match, 'recording a forfeit')
     requireBothSides(match)
     if (match.status === 'forfeit') throw conflictError(`Side ${match.forfeitedBy} has already forfeited this match`)
@@ -29,8 +29,7 @@ export default defineEventHandler(async (event) => {
     }
     const updated = await forfeitMatch(tx, match, side, reason)
     if (match.stage === 'final') await advanceFinal(tx, tournament.id, updated, otherSide(side))
-    const refs = await fighterRefs(tx, tournament.id)
-    await publishMatch(tx, tournament, updated, refs, payloads(log), before)
-    return { match: matchSummary(updated, refs, before), state: before }
+    await publishMatch(tx, locked, updated, payloads(log), before)
+    return { match: matchSummary(updated, locked.sides, before), state: before }
   })
 })

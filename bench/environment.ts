@@ -5,7 +5,7 @@ import { randomBytes } from 'node:crypto'
 import { ensureBuild } from '../scripts/lib/build.mjs'
 import { checkNode, ensureDebianPackages, ensureNodeModules } from '../scripts/lib/deps.mjs'
 import { cluster } from '../scripts/lib/postgres.mjs'
-import { migrate, startApp } from '../scripts/lib/services.mjs'
+import { migrate, startAppAndWorker } from '../scripts/lib/services.mjs'
 import { createSupervisor } from '../scripts/lib/supervisor.mjs'
 
 export interface BenchEnvironment {
@@ -47,8 +47,7 @@ export async function withBenchEnvironment<T>(options: BenchOptions, work: (env:
       AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
     }
     // The deployment DEVELOPERS.md describes: an app process for the requests, a worker beside it.
-    const appUrl = await startApp(supervisor, { ...base, PORT: String(options.appPort), UNSCATHED_ROLE: 'web' })
-    await startApp(supervisor, { ...base, PORT: String(options.appPort + 1), UNSCATHED_ROLE: 'worker' })
+    const appUrl = await startAppAndWorker(supervisor, { ...base, PORT: String(options.appPort) }, options.appPort + 1)
     return await work({ appUrl, databaseUrl })
   }
   finally {

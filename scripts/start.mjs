@@ -3,7 +3,7 @@ import { ensureBuild } from './lib/build.mjs'
 import { checkNode, ensureDebianPackages, ensureNodeModules } from './lib/deps.mjs'
 import { loadDotEnv, sessionPassword } from './lib/env.mjs'
 import { cluster, databaseUrl as localDatabaseUrl } from './lib/postgres.mjs'
-import { PROFILES, migrate, seed, seedDemoEvent, startApp, startFakes } from './lib/services.mjs'
+import { PROFILES, migrate, seed, seedDemoEvent, startAppAndWorker, startFakes } from './lib/services.mjs'
 import { acquireLock, createSupervisor } from './lib/supervisor.mjs'
 import { Failure, bold, createTimeline, describeError, dim, fail, info, seconds } from './lib/ui.mjs'
 
@@ -112,7 +112,7 @@ async function main() {
   guard()
   const signIns = await step('seed', record => seed(env, record))
   guard()
-  const url = await step('app', () => startApp(supervisor, env))
+  const url = await step('app', () => startAppAndWorker(supervisor, env, Number(process.env.WORKER_PORT || profile.workerPort)))
   guard()
   const eventLines = await step('demo event', () => seedDemoEvent(env, url))
   guard()

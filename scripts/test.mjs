@@ -9,7 +9,7 @@ import { randomSessionPassword } from './lib/env.mjs'
 import { fromRoot, localBin } from './lib/paths.mjs'
 import { cluster } from './lib/postgres.mjs'
 import { run } from './lib/proc.mjs'
-import { PROFILES, migrate, seed, seedDemoEvent, startApp, startFakes } from './lib/services.mjs'
+import { PROFILES, migrate, seed, seedDemoEvent, startAppAndWorker, startFakes } from './lib/services.mjs'
 import { acquireLock, createSupervisor, lockHolder } from './lib/supervisor.mjs'
 import { bold, createTimeline, describeError, dim, fail, info, warn } from './lib/ui.mjs'
 
@@ -200,7 +200,7 @@ async function environment() {
     await startFakes(supervisor, ['s3', 'mail'], config.fakes)
   }))) return false
   if (!(await attempt('seed', record => seed(config.app, record)))) return false
-  if (!(await attempt('app', () => startApp(supervisor, config.app)))) return false
+  if (!(await attempt('app', () => startAppAndWorker(supervisor, config.app, p.workerPort)))) return false
   // The browser tests check the demo event's public pages, so the test database gets it too.
   if (!(await attempt('demo event', () => seedDemoEvent(config.app, `http://127.0.0.1:${p.appPort}`)))) return false
   testEnv = config.tests

@@ -10,8 +10,8 @@ import { info, warn } from './ui.mjs'
 const shift = Number.parseInt(process.env.UNSCATHED_TEST_PORT_SHIFT ?? '0', 10) || 0
 
 export const PROFILES = {
-  start: { pgName: 'pg', pgPort: 54329, database: 'unscathed', appPort: 3000, s3Port: 4568, s3Dir: '.data/s3', smtpPort: 2525, inboxPort: 2580 },
-  test: { pgName: 'pg-test', pgPort: 54339 + shift, database: 'unscathed_test', appPort: 3100 + shift, s3Port: 4578 + shift, s3Dir: '.data/s3-test', smtpPort: 2535 + shift, inboxPort: 2590 + shift },
+  start: { pgName: 'pg', pgPort: 54329, database: 'unscathed', appPort: 3000, workerPort: 3050, s3Port: 4568, s3Dir: '.data/s3', smtpPort: 2525, inboxPort: 2580 },
+  test: { pgName: 'pg-test', pgPort: 54339 + shift, database: 'unscathed_test', appPort: 3100 + shift, workerPort: 3150 + shift, s3Port: 4578 + shift, s3Dir: '.data/s3-test', smtpPort: 2535 + shift, inboxPort: 2590 + shift },
 }
 
 const MIGRATIONS_JOURNAL = 'server/database/migrations/meta/_journal.json'
@@ -60,13 +60,23 @@ export async function startFakes(supervisor, names, env) {
   }
 }
 
-/** Starts the built app and waits until GET / answers. */
-export async function startApp(supervisor, env) {
-  await assertPortFree(Number(env.PORT), 'the app')
-  const service = supervisor.service('app', process.execPath, [SERVER_ENTRY], { env })
+/** Starts the built app and waits until GET / answers. `name` tells a worker from the app in messages. */
+export async function startApp(supervisor, env, name = 'app') {
+  await assertPortFree(Number(env.PORT), `the ${name}`)
+  const service = supervisor.service(name, process.execPath, [SERVER_ENTRY], { env })
   const url = `http://127.0.0.1:${env.PORT}`
-  const status = await waitForHttp(`${url}/`, { what: 'the app', timeoutMs: 60_000, service })
-  if (status >= 500) warn(`the app answers GET / with ${status}`)
-  else info(`the app answers GET / with ${status}`)
+  const status = await waitForHttp(`${url}/`, { what: `the ${name}`, timeoutMs: 60_000, service })
+  if (status >= 500) warn(`the ${name} answers GET / with ${status}`)
+  else info(`the ${name} answers GET / with ${status}`)
+  return url
+}
+
+/**
+ * The app as the deployment runs it: a web process for the requests and a worker process
+ * beside it for the background work (the live rings' snapshots), both from the same build.
+ */
+export async function startAppAndWorker(supervisor, env, workerPort) {
+  const url = await startApp(supervisor, { ...env, UNSCATHED_ROLE: 'web' })
+  await startApp(supervisor, { ...env, PORT: String(workerPort), UNSCATHED_ROLE: 'worker' }, 'worker')
   return url
 }

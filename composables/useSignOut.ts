@@ -12,7 +12,11 @@ export function useSignOut() {
       account.reset()
       clearNuxtData()
       // The ring desk's offline copy of pages holds this account's view; unsent entries stay in their queue.
-      if (import.meta.client && 'caches' in window) await caches.delete('unscathed-desk-v1').catch(() => false)
+      if (import.meta.client && 'caches' in window) {
+        for (const name of await caches.keys().catch(() => [])) {
+          if (name.startsWith('unscathed-desk-')) await caches.delete(name).catch(() => false)
+        }
+      }
       pending.value = false
     }
     await navigateTo('/')

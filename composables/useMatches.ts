@@ -1,4 +1,5 @@
-import type { Action, MatchEntry, MatchState, RuleSet, Side, Target } from '#shared/rules'
+import { ACTIONS, TARGETS } from '#shared/rules'
+import type { Action, CardColour, MatchEntry, MatchState, RuleSet, Side, Target } from '#shared/rules'
 
 // One match and its log of entries (routes under …/tournaments/:tournamentId/matches).
 
@@ -62,6 +63,14 @@ export const CARD_NAMES = {
   black: 'Black card',
 } as const
 
+/** The card buttons of the result form and the ring desk, with the key that picks each on the desk. */
+export const CARD_BUTTONS: readonly { colour: CardColour, label: string, key: string, tone: string }[] = [
+  { colour: 'warning', label: 'Warning', key: 'W', tone: 'border-ink-300 bg-white text-ink-900' },
+  { colour: 'yellow', label: 'Yellow', key: 'Y', tone: 'border-brass-400 bg-brass-100 text-ink-900' },
+  { colour: 'red', label: 'Red', key: 'R', tone: 'border-rust-600 bg-rust-100 text-rust-700' },
+  { colour: 'black', label: 'Black', key: 'K', tone: 'border-ink-900 bg-ink-900 text-paper' },
+]
+
 export const END_REASON_NAMES: Record<string, string> = {
   'bouts': 'all bouts fenced',
   'points': 'points reached',
@@ -69,6 +78,45 @@ export const END_REASON_NAMES: Record<string, string> = {
   'double-out': 'double-out',
   'expelled': 'black card',
   'forfeit': 'conceded',
+}
+
+/** One button of a hit grid: a target, and the action where it matters. */
+export interface HitChoice {
+  target: Target
+  action: Action
+  /** False when the grid shows one button for both actions (they score the same). */
+  split: boolean
+  allowed: boolean
+  points: number
+  /** The digit that picks it (1 head … 5 legs), with Shift for a thrust where cut and thrust score differently. */
+  digit: number
+  shift: boolean
+}
+
+/**
+ * The buttons of a hit grid. `all`: a button per target and action (the result form); `scored`: a
+ * button per target, split into cut and thrust only where the rule set scores them differently
+ * (the ring desk, where every tap counts). An unsplit button records a cut.
+ */
+export function hitChoices(rules: RuleSet, mode: 'all' | 'scored' = 'all'): HitChoice[] {
+  return TARGETS.flatMap((target, i) => {
+    const values = rules.targets[target]
+    const split = mode === 'all' || values.cut !== values.thrust
+    const actions: readonly Action[] = split ? ACTIONS : ['cut']
+    return actions.map(action => ({
+      target, action, split, allowed: values.allowed, points: values[action], digit: i + 1, shift: split && action === 'thrust',
+    }))
+  })
+}
+
+/** The hit a key picks in a `scored` grid: 1–5 for the targets, Shift for a thrust where it scores differently. */
+export function hitForKey(rules: RuleSet, event: Pick<KeyboardEvent, 'code' | 'shiftKey'>): { target: Target, action: Action } | null {
+  const digit = /^(?:Digit|Numpad)([1-5])$/.exec(event.code)?.[1]
+  if (!digit) return null
+  const target = TARGETS[Number(digit) - 1]!
+  const values = rules.targets[target]
+  if (!values.allowed) return null
+  return { target, action: event.shiftKey && values.cut !== values.thrust ? 'thrust' : 'cut' }
 }
 
 function hitWords(hit: { target: Target, action: Action }): string {

@@ -11,6 +11,12 @@ export function useSignOut() {
     finally {
       account.reset()
       clearNuxtData()
+      // The ring desk's offline copy of pages holds this account's view; unsent entries stay in their queue.
+      if (import.meta.client && 'caches' in window) {
+        for (const name of await caches.keys().catch(() => [])) {
+          if (name.startsWith('unscathed-desk-')) await caches.delete(name).catch(() => false)
+        }
+      }
       pending.value = false
     }
     await navigateTo('/')

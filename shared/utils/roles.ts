@@ -46,7 +46,7 @@ export function clubNavigation(slug: string, held: readonly string[]): NavItem[]
     { label: 'Overview', to: base, roles: ROLES },
     { label: 'Events', to: `${base}/events`, roles: ['organizer'] },
     { label: 'Rule sets', to: `${base}/rule-sets`, roles: ['organizer'] },
-    { label: 'Ring desk', to: `${base}/desk`, roles: ['scorekeeper'] },
+    { label: 'Ring desk', to: `${base}/desk`, roles: ['scorekeeper', 'organizer'] },
     { label: 'Cue desk', to: `${base}/cue`, roles: ['streamer'] },
     { label: 'Footage', to: `${base}/footage`, roles: ['commentator'] },
     { label: 'Cards', to: `${base}/cards`, roles: ['editor'] },

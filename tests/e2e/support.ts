@@ -16,6 +16,9 @@ export const demo = {
 
 export async function signIn(page: Page, who: { email: string, password: string }) {
   await page.goto('/sign-in')
+  // Fill the form once the app has taken the page over: on a busy machine a click before that
+  // submits the bare server-rendered form and the page comes back empty.
+  await page.waitForFunction(() => Boolean((document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__))
   await page.getByLabel('E-mail').fill(who.email)
   await page.getByLabel('Password').fill(who.password)
   await page.getByRole('button', { name: 'Sign in' }).click()

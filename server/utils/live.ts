@@ -124,7 +124,7 @@ function liveText(at: number, gate?: string) {
       returning seq, payload::text as body
     ), d as (
       insert into live_dirty (event_id, ring_number) select ${p(1)}, ${p(2)} from r where ${p(5)}::boolean
-      on conflict do nothing
+      on conflict (event_id, ring_number) do update set marked_at = clock_timestamp()
     )
     select e.seq,
       pg_notify('${LIVE_CHANNEL}', concat_ws(':', ${p(1)}::text, ${p(2)}::text, e.seq::text, ${p(3)}::text,
@@ -179,7 +179,11 @@ export async function markRingsDirty(tx: DbTx, eventId: number, rings?: readonly
   if (!event) return
   const list = rings ?? Array.from({ length: event.rings }, (_, i) => i + 1)
   if (list.length === 0) return
-  await tx.insert(schema.liveDirty).values(list.map(ringNumber => ({ eventId, ringNumber }))).onConflictDoNothing()
+  // A mark already there moves on: a snapshot being made now may have read the data before this
+  // change, and clears only the marks it has seen.
+  const d = schema.liveDirty
+  await tx.insert(d).values(list.map(ringNumber => ({ eventId, ringNumber })))
+    .onConflictDoUpdate({ target: [d.eventId, d.ringNumber], set: { markedAt: sql`clock_timestamp()` } })
   await tx.execute(sql`select pg_notify(${DIRTY_CHANNEL}, ${`${eventId}:*`})`)
 }
 

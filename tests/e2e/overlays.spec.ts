@@ -379,13 +379,28 @@ test('board changes wipe in, and not at all for viewers who ask for reduced moti
   await page.emulateMedia({ reducedMotion: 'no-preference' })
   await page.goto(s.overlay)
   await expect(page.locator('.ov-window')).toHaveAttribute('data-status', 'live')
+  // Every CSS transition that starts, whatever the machine's speed: a busy one may finish a wipe between two looks.
+  const started = () => page.evaluate(() => (window as unknown as { started: string[] }).started)
+  await page.evaluate(() => {
+    const w = window as unknown as { started: string[] }
+    w.started = []
+    document.addEventListener('transitionrun', event => w.started.push(event.propertyName), true)
+  })
+  const afterTwoFrames = () => page.evaluate(() => new Promise<void>(resolve => requestAnimationFrame(() => requestAnimationFrame(() => resolve()))))
+
   await ok(await organizer.post(`${s.rings}/1/board`, { data: { onAir: 'pool' } }))
-  await page.waitForFunction(() => document.querySelector('[data-overlay-canvas]')?.getAttribute('data-board') === 'pool' && document.getAnimations().length > 0)
+  await expect(page.locator('[data-overlay-canvas]')).toHaveAttribute('data-board', 'pool')
+  await expect.poll(started).toEqual(expect.arrayContaining(['opacity', 'clip-path']))
   await page.waitForFunction(() => document.getAnimations().length === 0)
 
   await page.emulateMedia({ reducedMotion: 'reduce' })
+  await page.evaluate(() => {
+    (window as unknown as { started: string[] }).started = []
+  })
   await ok(await organizer.post(`${s.rings}/1/board`, { data: { onAir: 'up-next' } }))
   await expect(page.locator('[data-overlay-canvas]')).toHaveAttribute('data-board', 'up-next')
+  await afterTwoFrames()
+  expect(await started()).toEqual([])
   expect(await page.evaluate(() => document.getAnimations().length)).toBe(0)
   await organizer.dispose()
   await table.dispose()

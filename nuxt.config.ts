@@ -4,7 +4,8 @@ export default defineNuxtConfig({
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
   components: [
     '~/components',
-    { path: '~/overlays', prefix: 'Overlay' },
+    // overlays/ also holds the boards' palette module, which is not a component.
+    { path: '~/overlays', prefix: 'Overlay', extensions: ['vue'] },
   ],
   devtools: { enabled: false },
   app: {

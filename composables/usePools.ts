@@ -206,6 +206,21 @@ export interface PublicTournamentView {
   } | null
 }
 
+/** A published event for a page of the club site; without it the page shows the error page (404 for an unknown address). */
+export async function usePublicEvent(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>, page: string) {
+  const result = await useFetch<PublicEventView>(base, { key: () => `public-event-${toValue(key)}` })
+  if (result.error.value || !result.data.value) {
+    const status = apiStatus(result.error.value) ?? 500
+    throw createError({
+      status,
+      statusText: status === 404 ? 'Not Found' : `The ${page} is unavailable`,
+      message: status === 404 ? 'There is no published event at this address.' : `The ${page} did not load.`,
+      fatal: true,
+    })
+  }
+  return result
+}
+
 export function usePools(base: MaybeRefOrGetter<string>, key: MaybeRefOrGetter<string>) {
   return useFetch<{ pools: PoolView[] }>(() => `${toValue(base)}/pools`, {
     key: () => `pools-${toValue(key)}`,

@@ -179,10 +179,11 @@ export async function markRingsDirty(tx: DbTx, eventId: number, rings?: readonly
   if (!event) return
   const list = rings ?? Array.from({ length: event.rings }, (_, i) => i + 1)
   if (list.length === 0) return
-  // A mark already waiting moves on: a snapshot being made right now (which may not see this
-  // change) clears only the mark it read, so the ring gets another one.
-  await tx.insert(schema.liveDirty).values(list.map(ringNumber => ({ eventId, ringNumber })))
-    .onConflictDoUpdate({ target: [schema.liveDirty.eventId, schema.liveDirty.ringNumber], set: { markedAt: sql`clock_timestamp()` } })
+  // A mark already there moves on: a snapshot being made now may have read the data before this
+  // change, and clears only the marks it has seen.
+  const d = schema.liveDirty
+  await tx.insert(d).values(list.map(ringNumber => ({ eventId, ringNumber })))
+    .onConflictDoUpdate({ target: [d.eventId, d.ringNumber], set: { markedAt: sql`clock_timestamp()` } })
   await tx.execute(sql`select pg_notify(${DIRTY_CHANNEL}, ${`${eventId}:*`})`)
 }
 

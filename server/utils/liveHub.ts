@@ -375,19 +375,33 @@ export class LiveHub {
 
   // ——— snapshots ———
 
-  /** Makes and sends the ring's snapshot, unless another process is making it right now. */
-  async publishSnapshot(eventId: number, ring: number, markedAt: string | null = null): Promise<boolean> {
+  /**
+   * Makes and sends the ring's snapshot, unless another process is making it right now. The data
+   * is read without holding up the ring's desk; when a change landed meanwhile (a message, or a
+   * new mark), it is read again once the ring's row is locked, so that a snapshot never carries a
+   * number later than its data. Clears the marks it has seen.
+   */
+  async publishSnapshot(eventId: number, ring: number): Promise<boolean> {
     return useDb().transaction(async (tx) => {
       const [{ locked } = { locked: false }] = (await tx.execute<{ locked: boolean }>(
         sql`select pg_try_advisory_xact_lock(${LIVE_LOCK_SPACE}, ${eventId * 16 + ring}) as locked`)).rows
       if (!locked) return false
-      const snapshot = await ringSnapshot(tx, eventId, ring)
+      const d = schema.liveDirty
+      const here = and(eq(d.eventId, eventId), eq(d.ringNumber, ring))
+      // The mark's time as text keeps its microseconds, so that a newer mark is never cleared by mistake.
+      const markNow = async () => (await tx.select({ at: sql<string>`${d.markedAt}::text` }).from(d).where(here))[0]?.at ?? null
+      const seen = { seq: (await ringState(tx, eventId, ring)).seq, mark: await markNow() }
+      let snapshot = await ringSnapshot(tx, eventId, ring)
       const state = await ringState(tx, eventId, ring, { lock: true })
+      const mark = await markNow()
+      if (state.seq !== seen.seq || mark !== seen.mark) {
+        seen.mark = mark
+        snapshot = await ringSnapshot(tx, eventId, ring)
+      }
       snapshot.seq = state.seq + 1
       snapshot.at = new Date().toISOString()
       await publishLive(tx, eventId, ring, { kind: 'ring', ring, snapshot }, { dirty: false })
-      const d = schema.liveDirty
-      await tx.delete(d).where(and(eq(d.eventId, eventId), eq(d.ringNumber, ring), ...(markedAt ? [sql`${d.markedAt} <= ${markedAt}::timestamptz`] : [])))
+      if (seen.mark !== null) await tx.delete(d).where(and(here, sql`${d.markedAt} <= ${seen.mark}::timestamptz`))
       const l = schema.liveEvents
       await tx.delete(l).where(and(eq(l.eventId, eventId), eq(l.ringNumber, ring), lte(l.seq, snapshot.seq - KEEP_MESSAGES)))
       return true
@@ -421,11 +435,10 @@ export class LiveHub {
       do {
         this.sweepAgain = false
         const d = schema.liveDirty
-        // The mark's time as text keeps its microseconds, so that a newer mark is never cleared by mistake.
-        const rows = await useDb().select({ eventId: d.eventId, ringNumber: d.ringNumber, markedAt: sql<string>`${d.markedAt}::text` })
+        const rows = await useDb().select({ eventId: d.eventId, ringNumber: d.ringNumber })
           .from(d).orderBy(asc(d.markedAt)).limit(50)
         for (const row of rows) {
-          await this.publishSnapshot(row.eventId, row.ringNumber, row.markedAt).catch((err: Error) => {
+          await this.publishSnapshot(row.eventId, row.ringNumber).catch((err: Error) => {
             console.error(`[live] snapshot of event ${row.eventId} ring ${row.ringNumber} failed:`, err.message)
           })
         }

@@ -47,7 +47,7 @@ export function clubNavigation(slug: string, held: readonly string[]): NavItem[]
     { label: 'Events', to: `${base}/events`, roles: ['organizer'] },
     { label: 'Rule sets', to: `${base}/rule-sets`, roles: ['organizer'] },
     { label: 'Ring desk', to: `${base}/desk`, roles: ['scorekeeper', 'organizer'] },
-    { label: 'Cue desk', to: `${base}/cue`, roles: ['streamer'] },
+    { label: 'Cue desk', to: `${base}/cue`, roles: ['streamer', 'organizer'] },
     { label: 'Footage', to: `${base}/footage`, roles: ['commentator'] },
     { label: 'Cards', to: `${base}/cards`, roles: ['editor'] },
     { label: 'Club profile', to: `${base}/profile`, roles: ['admin'] },

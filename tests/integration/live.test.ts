@@ -130,6 +130,74 @@ describe('the overlay stream', () => {
   })
 })
 
+describe('the rings\' snapshots', () => {
+  it('keep a ring marked when a change lands while its snapshot is being made, so that another snapshot follows', async () => {
+    const { f, match } = await ringWithMatch()
+    // A snapshot in the making: the lock the hub holds while it makes ring 1's snapshot (LIVE_LOCK_SPACE
+    // in server/utils/liveHub.ts), and the mark it read, which it clears once its snapshot is out.
+    const maker = await pool.connect()
+    const markedLater = async (than: string) => {
+      const { rows } = await pool.query<{ later: boolean }>('select marked_at > $2::timestamptz as later from live_dirty where event_id = $1 and ring_number = 1', [f.eventId, than])
+      return rows[0]?.later ?? false
+    }
+    try {
+      await maker.query('begin')
+      await maker.query('select pg_advisory_xact_lock($1, $2)', [7301, f.eventId * 16 + 1])
+      const { rows: [read] } = await pool.query<{ at: string }>(`insert into live_dirty (event_id, ring_number, marked_at) values ($1, 1, now() - interval '1 hour')
+        on conflict (event_id, ring_number) do update set marked_at = excluded.marked_at returning marked_at::text as at`, [f.eventId])
+
+      // A bout (the desk's one statement) and a call (a change without a message) both move the mark on.
+      expect((await record(organizer, f.base, match.id, [clean('a')])).status).toBe(201)
+      expect(await markedLater(read!.at)).toBe(true)
+      const { rows: [again] } = await pool.query<{ at: string }>('select marked_at::text as at from live_dirty where event_id = $1 and ring_number = 1', [f.eventId])
+      const ring = (await rings(f))[0]!
+      expect((await organizer.post(`/api/clubs/${club.id}/events/${f.eventId}/rings/1/call`, { matchId: match.id, expectedVersion: ring.version })).status).toBe(200)
+      expect(await markedLater(again!.at)).toBe(true)
+    }
+    finally {
+      await maker.query('rollback')
+      maker.release()
+    }
+  })
+
+  it('reads a ring again when a change lands while its snapshot is being made, so a snapshot is never older than its number', async () => {
+    const { f } = await ringWithMatch()
+    const snapshots = async () => (await pool.query<{ seq: number, onAir: string }>(
+      `select seq, payload->'snapshot'->'board'->>'onAir' as "onAir" from live_events
+       where event_id = $1 and ring_number = 1 and kind = 'ring' order by seq`, [f.eventId])).rows
+    await expect.poll(async () => (await snapshots()).length, { timeout: 5000 }).toBeGreaterThan(0)
+
+    // A desk holds the ring's row, as the board route does, while a snapshot is asked for.
+    const desk = await pool.connect()
+    let changedTo = 0
+    try {
+      await desk.query('begin')
+      const { rows: [{ pid }] } = await desk.query<{ pid: number }>('select pg_backend_pid() as pid')
+      await desk.query('select seq from ring_states where event_id = $1 and ring_number = 1 for update', [f.eventId])
+      await pool.query(`insert into live_dirty (event_id, ring_number) values ($1, 1)
+        on conflict (event_id, ring_number) do update set marked_at = clock_timestamp()`, [f.eventId])
+      await pool.query('select pg_notify($1, $2)', ['unscathed_live_dirty', `${f.eventId}:1`])
+      // The snapshot has read the ring and waits for its row.
+      await expect.poll(async () => (await pool.query<{ n: number }>('select count(*)::int as n from pg_stat_activity where $1 = any(pg_blocking_pids(pid))', [pid])).rows[0]!.n,
+        { timeout: 5000 }).toBe(1)
+      // The board route's change, committed while the snapshot waits: another board and the ring's next number.
+      const { rows: [changed] } = await desk.query<{ seq: number }>(`update ring_states set board = 'pool', board_mode = 'manual', seq = seq + 1
+        where event_id = $1 and ring_number = 1 returning seq`, [f.eventId])
+      changedTo = changed!.seq
+      await desk.query('commit')
+    }
+    catch (err) {
+      await desk.query('rollback')
+      throw err
+    }
+    finally {
+      desk.release()
+    }
+    await expect.poll(async () => (await snapshots()).filter(s => s.seq > changedTo).length, { timeout: 5000 }).toBeGreaterThan(0)
+    expect([...new Set((await snapshots()).filter(s => s.seq > changedTo).map(s => s.onAir))]).toEqual(['pool'])
+  })
+})
+
 describe('two app processes', () => {
   it('push the same bout to their clients through PostgreSQL, with heartbeats on idle streams', async () => {
     const second = await startSecondApp({ UNSCATHED_LIVE_HEARTBEAT_MS: '200' })

@@ -9,7 +9,8 @@ import { DATABASE_URL } from './fixtures'
 
 const SERVER = fileURLToPath(new URL('../../.output/server/index.mjs', import.meta.url))
 
-async function freePort(): Promise<number> {
+/** A port nobody listens on now, to start an app on (and start it again on the same port). */
+export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const server = createServer()
     server.unref()
@@ -27,9 +28,12 @@ export interface SecondApp {
   stop: () => Promise<void>
 }
 
-/** Starts the built server again with `env` added, and waits until it answers. */
-export async function startSecondApp(env: Record<string, string> = {}): Promise<SecondApp> {
-  const port = await freePort()
+/**
+ * Starts the built server again with `env` added, and waits until it answers. On `port` when
+ * given (to restart an app where its clients expect it), else on a free one.
+ */
+export async function startSecondApp(env: Record<string, string> = {}, port?: number): Promise<SecondApp> {
+  port ??= await freePort()
   const child = spawn(process.execPath, [SERVER], {
     env: {
       ...process.env,

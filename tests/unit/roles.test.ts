@@ -17,7 +17,7 @@ describe('roles', () => {
     expect(labels(['scorekeeper'])).toEqual(['Overview', 'Ring desk'])
     expect(labels(['streamer'])).toEqual(['Overview', 'Cue desk'])
     expect(labels(['admin'])).toEqual(['Overview', 'Club profile', 'Members'])
-    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Rule sets', 'Ring desk', 'Cards'])
+    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Rule sets', 'Ring desk', 'Cue desk', 'Cards'])
   })
 
   it('gives a member with every role every area once', () => {

@@ -1,3 +1,7 @@
+import { createRequire } from 'node:module'
+
+const require = createRequire(import.meta.url)
+
 // Folders live at the repository root (see DEVELOPERS.md): srcDir must be explicit,
 // otherwise Nuxt 4 switches to app/ as soon as a file appears there.
 export default defineNuxtConfig({
@@ -52,6 +56,14 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-01-01',
   nitro: {
     experimental: { tasks: false },
+    // Read from disk at run time by the card renderer (server/cards/render.ts), so not found by
+    // the build's own tracing: the WebAssembly module and the Oswald files it draws with.
+    externals: {
+      traceInclude: [
+        '@resvg/resvg-wasm/index_bg.wasm',
+        ...['latin', 'latin-ext'].flatMap(set => [400, 600].map(weight => `@fontsource/oswald/files/oswald-${set}-${weight}-normal.woff`)),
+      ].map(file => require.resolve(file)),
+    },
     // Scripts and styles go out gzip-compressed, made once at build time (an overlay loads quickly).
     compressPublicAssets: { gzip: true, brotli: false },
   },

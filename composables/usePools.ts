@@ -186,6 +186,7 @@ export interface PublicEventView {
   club: PublicClub
   event: PublicEventSummary & { safety: { emergencyNumber: string, firstAidPoint: string } }
   tournaments: { id: number, name: string, weapon: string, phase: TournamentPhase, entries: number }[]
+  openGraph?: OpenGraphLinks
 }
 
 export interface PublicTournamentView {

@@ -27,5 +27,6 @@ export default defineEventHandler(async (event) => {
       // Withdrawn fighters are not counted: this is the field as it stands.
       entries: t.entries.entered + t.entries.checkedIn,
     })),
+    openGraph: openGraphLinks(row.club.slug, 'event', row.event.slug),
   }
 })

@@ -1,0 +1,32 @@
+import { renderCardBatch } from './cardBatch'
+
+// Every background job, registered in one place: its handler and how the queue treats it. A job
+// is enqueued from anywhere with `enqueueJob(name, data)` (server/utils/jobs.ts) and runs in a
+// worker process (UNSCATHED_ROLE=worker, or a single process with the role `all`), never in a
+// web process. Handlers must be safe to run again: a job whose worker died is retried.
+
+export interface JobRun {
+  id: string
+  /** 0 on the first run. */
+  retryCount: number
+  /** No retry follows if this run fails. */
+  lastAttempt: boolean
+}
+
+export interface JobDefinition<Data> {
+  handle: (data: Data, job: JobRun) => Promise<void>
+  /** Seconds a run may take before the queue takes the job back. */
+  expireInSeconds: number
+  /** Extra attempts after a failure or an expiry. */
+  retryLimit: number
+}
+
+const define = <Data>(definition: JobDefinition<Data>) => definition
+
+export const JOBS = {
+  // The demo event's 272 cards take under a minute; ten minutes leaves room for large events.
+  'cards-batch': define({ handle: renderCardBatch, expireInSeconds: 10 * 60, retryLimit: 2 }),
+}
+
+export type JobName = keyof typeof JOBS
+export type JobData<N extends JobName> = Parameters<(typeof JOBS)[N]['handle']>[0]

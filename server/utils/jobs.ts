@@ -1,0 +1,74 @@
+import os from 'node:os'
+import PgBoss from 'pg-boss'
+import { JOBS } from '../jobs'
+import type { JobData, JobName } from '../jobs'
+
+// The background job queue: pg-boss on the app's own PostgreSQL (schema `pgboss`, which it makes
+// and migrates itself). Every process can enqueue; only worker processes take jobs, and any
+// number of them can run at once (pg-boss hands each job to one of them with SKIP LOCKED).
+
+let boss: Promise<PgBoss> | null = null
+let working = false
+
+/** This process in the queue's records: host and pid. */
+export const WORKER_NAME = `${os.hostname()}:${process.pid}`
+
+// Half a second, the queue's shortest: a batch starts soon after the editor asks for it.
+const POLLING_SECONDS = 0.5
+
+function startQueue(worker: boolean): Promise<PgBoss> {
+  boss ??= (async () => {
+    const queue = new PgBoss({
+      connectionString: useRuntimeConfig().databaseUrl,
+      application_name: `unscathed-jobs-${serverRole()}`,
+      max: 4,
+      // Archiving, expiry and cron only where jobs run.
+      supervise: worker,
+      schedule: false,
+    })
+    queue.on('error', err => console.error('[jobs]', err.message))
+    await queue.start()
+    for (const [name, job] of Object.entries(JOBS)) {
+      // pg-boss 10 wants each queue made before it is used; making it again changes nothing.
+      await queue.createQueue(name, { name, retryLimit: job.retryLimit, expireInSeconds: job.expireInSeconds })
+    }
+    return queue
+  })()
+  boss.catch(() => {
+    boss = null
+  })
+  return boss
+}
+
+/** Puts a job on the queue; a worker process runs it. Answers the job's id. */
+export async function enqueueJob<N extends JobName>(name: N, data: JobData<N>): Promise<string> {
+  const queue = await startQueue(serverRole() !== 'web')
+  const { retryLimit, expireInSeconds } = JOBS[name]
+  const id = await queue.send(name, data as object, { retryLimit, expireInSeconds })
+  if (!id) throw new Error(`the queue did not take the ${name} job`)
+  return id
+}
+
+/** Starts taking jobs of every registered kind, one at a time per kind, in this process. */
+export async function startJobWorkers() {
+  if (working) return
+  working = true
+  const queue = await startQueue(true).catch((err) => {
+    working = false
+    throw err
+  })
+  for (const [name, job] of Object.entries(JOBS) as [JobName, (typeof JOBS)[JobName]][]) {
+    await queue.work<JobData<typeof name>>(name, { pollingIntervalSeconds: POLLING_SECONDS, batchSize: 1, includeMetadata: true }, async ([item]) => {
+      if (!item) return
+      await job.handle(item.data, { id: item.id, retryCount: item.retryCount, lastAttempt: item.retryCount >= job.retryLimit })
+    })
+  }
+}
+
+export async function stopJobQueue() {
+  const queue = await boss?.catch(() => null)
+  boss = null
+  working = false
+  // Jobs under way get a few seconds to finish; what is left is taken back and retried later.
+  await queue?.stop({ graceful: true, timeout: 5000, wait: true })
+}

@@ -172,7 +172,7 @@ describe('the rings\' snapshots', () => {
     let changedTo = 0
     try {
       await desk.query('begin')
-      const { rows: [{ pid }] } = await desk.query<{ pid: number }>('select pg_backend_pid() as pid')
+      const pid = (await desk.query<{ pid: number }>('select pg_backend_pid() as pid')).rows[0]!.pid
       await desk.query('select seq from ring_states where event_id = $1 and ring_number = 1 for update', [f.eventId])
       await pool.query(`insert into live_dirty (event_id, ring_number) values ($1, 1)
         on conflict (event_id, ring_number) do update set marked_at = clock_timestamp()`, [f.eventId])

@@ -412,3 +412,28 @@ test('the points format: the server\'s clock, the last-exchange warning and the 
   expect(log.entries.map(e => e.payload.kind)).toEqual(['clean', 'time-up'])
   expect(log.match.status).toBe('finished')
 })
+
+test('a bout tapped on the desk shows on the ring\'s overlay within one second', async ({ page, browser, request }) => {
+  const s = await setUp(request, 'to-overlay', { preset: 'first-hit-three-bouts' })
+  const rings = await ok(await s.organizer.get(`/api/clubs/${s.clubId}/events/${s.eventId}/rings`)) as { rings: { overlay: { path: string } }[] }
+  await signIn(page, demo.scorekeeper)
+  const { a } = await openAndCall(page, s)
+
+  // The recording software's browser source: no session, only the overlay address.
+  const source = await browser.newContext({ viewport: { width: 1920, height: 1080 } })
+  const overlay = await source.newPage()
+  await overlay.goto(rings.rings[0]!.overlay.path)
+  await expect(overlay.locator('[data-overlay-canvas]')).toHaveAttribute('data-board', 'bout')
+  await expect(overlay.locator('.ov-window')).toHaveAttribute('data-status', 'live')
+  await expect(overlay.locator('[data-name="a"]')).toHaveText(a)
+  await expect(overlay.locator('[data-score="a"]')).toHaveText('0')
+
+  await pad(page).getByRole('button', { name: `${a} hit` }).click()
+  await pad(page).getByRole('button', { name: /^Head/ }).click()
+  const tapped = Date.now()
+  await pad(page).getByRole('button', { name: /No afterblow/ }).click()
+  // The preset scores a head cut 3 (first-hit preset, common practice, no source).
+  await expect(overlay.locator('[data-score="a"]')).toHaveText('3', { timeout: 1000 })
+  expect(Date.now() - tapped).toBeLessThan(1000)
+  await source.close()
+})

@@ -13,12 +13,34 @@ import type { CardNode } from './templates/h'
 type SatoriFont = Parameters<typeof satori>[1]['fonts'][number]
 
 /** Oswald, as shipped with the app by @fontsource: Latin and Latin Extended, regular and semibold. */
-const FONT_FILES: { file: string, weight: 400 | 600 }[] = [
-  { file: 'oswald-latin-400-normal.woff', weight: 400 },
-  { file: 'oswald-latin-ext-400-normal.woff', weight: 400 },
-  { file: 'oswald-latin-600-normal.woff', weight: 600 },
-  { file: 'oswald-latin-ext-600-normal.woff', weight: 600 },
+const FONT_FILES: { file: string, weight: 400 | 600, subset: 'latin' | 'latin-ext' }[] = [
+  { file: 'oswald-latin-400-normal.woff', weight: 400, subset: 'latin' },
+  { file: 'oswald-latin-ext-400-normal.woff', weight: 400, subset: 'latin-ext' },
+  { file: 'oswald-latin-600-normal.woff', weight: 600, subset: 'latin' },
+  { file: 'oswald-latin-ext-600-normal.woff', weight: 600, subset: 'latin-ext' },
 ]
+
+// The code points of @fontsource's "latin" subset (its unicode.json). A card whose text stays
+// inside it is laid out with the two Latin files only: satori looks every glyph up in each font
+// of a family, and the Latin Extended files almost doubled its time on a card.
+const LATIN: [number, number][] = [[0x0, 0xFF], [0x131, 0x131], [0x152, 0x153], [0x2BB, 0x2BC], [0x2C6, 0x2C6], [0x2DA, 0x2DA], [0x2DC, 0x2DC], [0x304, 0x304], [0x308, 0x308], [0x329, 0x329], [0x2000, 0x206F], [0x20AC, 0x20AC], [0x2122, 0x2122], [0x2191, 0x2191], [0x2193, 0x2193], [0x2212, 0x2212], [0x2215, 0x2215], [0xFEFF, 0xFEFF], [0xFFFD, 0xFFFD]]
+
+/** Whether the text of a card stays inside @fontsource's Latin subset. */
+export function latinOnly(text: string): boolean {
+  for (const ch of text) {
+    const code = ch.codePointAt(0)!
+    if (!LATIN.some(([from, to]) => code >= from && code <= to)) return false
+  }
+  return true
+}
+
+/** Every string drawn by an element tree, joined. */
+export function textOf(node: unknown): string {
+  if (typeof node === 'string' || typeof node === 'number') return String(node)
+  if (Array.isArray(node)) return node.map(textOf).join('')
+  if (node && typeof node === 'object' && 'props' in node) return textOf((node as { props?: { children?: unknown } }).props?.children)
+  return ''
+}
 export const CARD_FONT_FAMILY = 'Oswald'
 
 // Where to look for packages: beside this file (the tests, the benchmark, worker threads) or
@@ -40,17 +62,20 @@ export function packageFile(specifier: string): string {
   throw failure ?? new Error(`${specifier} not found`)
 }
 
-export function cardFontFiles(): { path: string, weight: 400 | 600 }[] {
-  return FONT_FILES.map(f => ({ path: packageFile(`@fontsource/oswald/files/${f.file}`), weight: f.weight }))
+export function cardFontFiles(): { path: string, weight: 400 | 600, subset: 'latin' | 'latin-ext' }[] {
+  return FONT_FILES.map(f => ({ path: packageFile(`@fontsource/oswald/files/${f.file}`), weight: f.weight, subset: f.subset }))
 }
 
-let ready: Promise<SatoriFont[]> | null = null
+// Two fixed arrays: satori caches what it learns of a font by the array it was given.
+interface CardFonts { all: SatoriFont[], latin: SatoriFont[] }
+let ready: Promise<CardFonts> | null = null
 
 /** Loads the fonts and the WebAssembly module once; every render waits for it. */
-export function cardRenderer(): Promise<SatoriFont[]> {
+export function cardRenderer(): Promise<CardFonts> {
   ready ??= (async () => {
     await initWasm(readFileSync(packageFile('@resvg/resvg-wasm/index_bg.wasm')))
-    return cardFontFiles().map(({ path, weight }) => ({ name: CARD_FONT_FAMILY, data: readFileSync(path), weight, style: 'normal' as const }))
+    const files = cardFontFiles().map(f => ({ ...f, font: { name: CARD_FONT_FAMILY, data: readFileSync(f.path), weight: f.weight, style: 'normal' as const } }))
+    return { all: files.map(f => f.font), latin: files.filter(f => f.subset === 'latin').map(f => f.font) }
   })()
   ready.catch(() => {
     ready = null
@@ -59,7 +84,8 @@ export function cardRenderer(): Promise<SatoriFont[]> {
 }
 
 export async function renderSvg(element: CardNode, width: number, height: number): Promise<string> {
-  const fonts = await cardRenderer()
+  const set = await cardRenderer()
+  const fonts = latinOnly(textOf(element)) ? set.latin : set.all
   // satori's types want a React element; the tree is the same plain { type, props } shape.
   return satori(element as unknown as Parameters<typeof satori>[0], { width, height, fonts })
 }

@@ -1,6 +1,6 @@
 import { PNG } from 'pngjs'
 import { describe, expect, it } from 'vitest'
-import { renderPng } from '../../../server/cards/render'
+import { latinOnly, renderPng, textOf } from '../../../server/cards/render'
 import { encodePng } from '../../../server/cards/png'
 import { cardElement } from '../../../server/cards/templates'
 import { GAP, HEADER, cardLayout } from '../../../server/cards/templates/frame'
@@ -46,6 +46,15 @@ describe('card rendering', () => {
     const first = await draw(input)
     const again = await draw(structuredClone(input))
     expect(Buffer.from(again).equals(Buffer.from(first))).toBe(true)
+  })
+
+  it('lays out Latin text with the Latin files only, and takes the Latin Extended files for Ł or ő', () => {
+    // Ranges from @fontsource/oswald's unicode.json; without its font a letter is drawn as a blank box.
+    expect(latinOnly(textOf(cardElement(sampleInput('match', 'square', 1))))).toBe(true)
+    expect(latinOnly('Maren Holt · 6–3 × ’')).toBe(true)
+    expect(latinOnly('Łucja Kővári')).toBe(false)
+    const element = cardElement({ ...sampleInput('fighter', 'link', 2), headline: 'Łucja Kővári' })
+    expect(latinOnly(textOf(element))).toBe(false)
   })
 
   it('gives a different PNG when a score changes', async () => {

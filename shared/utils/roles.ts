@@ -48,8 +48,10 @@ export function clubNavigation(slug: string, held: readonly string[]): NavItem[]
     { label: 'Rule sets', to: `${base}/rule-sets`, roles: ['organizer'] },
     { label: 'Ring desk', to: `${base}/desk`, roles: ['scorekeeper', 'organizer'] },
     { label: 'Cue desk', to: `${base}/cue`, roles: ['streamer', 'organizer'] },
-    { label: 'Footage', to: `${base}/footage`, roles: ['commentator'] },
+    { label: 'Footage', to: `${base}/footage`, roles: ['commentator', 'editor'] },
+    { label: 'Breakdowns', to: `${base}/posts`, roles: ['commentator', 'editor', 'admin'] },
     { label: 'Cards', to: `${base}/cards`, roles: ['editor'] },
+    { label: 'Readers', to: `${base}/readers`, roles: ['editor', 'admin'] },
     { label: 'Club profile', to: `${base}/profile`, roles: ['admin'] },
     { label: 'Members', to: `${base}/members`, roles: ['admin'] },
   ]

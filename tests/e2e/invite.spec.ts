@@ -26,7 +26,7 @@ test('an admin invites a new member, who follows the e-mailed link, sets a passw
   await invitee.getByLabel('Password').fill('my own long password')
   await invitee.getByRole('button', { name: 'Join the club' }).click()
   await expect(invitee).toHaveURL(new RegExp(`/clubs/${DEMO_CLUB}`))
-  await expect(invitee.getByRole('navigation', { name: 'Club' }).getByRole('link')).toHaveText(['Overview', 'Cue desk', 'Cards'])
+  await expect(invitee.getByRole('navigation', { name: 'Club' }).getByRole('link')).toHaveText(['Overview', 'Cue desk', 'Footage', 'Breakdowns', 'Cards', 'Readers'])
 
   // Signed out, the new password works on the sign-in page.
   await invitee.getByRole('button', { name: 'Sign out' }).click()

@@ -16,14 +16,14 @@ describe('roles', () => {
     const labels = (roles: string[]) => clubNavigation('saltmarsh-sword-guild', roles).map(i => i.label)
     expect(labels(['scorekeeper'])).toEqual(['Overview', 'Ring desk'])
     expect(labels(['streamer'])).toEqual(['Overview', 'Cue desk'])
-    expect(labels(['admin'])).toEqual(['Overview', 'Club profile', 'Members'])
-    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Rule sets', 'Ring desk', 'Cue desk', 'Cards'])
+    expect(labels(['admin'])).toEqual(['Overview', 'Breakdowns', 'Readers', 'Club profile', 'Members'])
+    expect(labels(['organizer', 'editor'])).toEqual(['Overview', 'Events', 'Rule sets', 'Ring desk', 'Cue desk', 'Footage', 'Breakdowns', 'Cards', 'Readers'])
   })
 
   it('gives a member with every role every area once', () => {
     const items = clubNavigation('x', [...ROLES])
     expect(new Set(items.map(i => i.to)).size).toBe(items.length)
-    expect(items).toHaveLength(9)
+    expect(items).toHaveLength(11)
   })
 
   it('gives a non-member no navigation at all', () => {

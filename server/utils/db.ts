@@ -11,7 +11,7 @@ function createClient() {
   const pool = new pg.Pool({ connectionString: useRuntimeConfig().databaseUrl, max: 10 })
   // An idle client that loses its server (PostgreSQL restarted) must not crash the process.
   pool.on('error', err => console.error('[db] idle client error:', err.message))
-  if (process.env.UNSCATHED_ROLE === 'worker') pool.on('connect', client => void lowerPriority(client))
+  if (process.env.UNSCATHED_ROLE === 'worker') pool.on('connect', lowerPriority)
   return drizzle(pool, { schema })
 }
 
@@ -20,10 +20,13 @@ function createClient() {
 // where the operating system lets this process change them (same user, or root).
 export const WORKER_NICENESS = 10
 
-async function lowerPriority(client: pg.PoolClient) {
+function lowerPriority(client: pg.PoolClient) {
+  // The server process's pid comes with the connection (BackendKeyData): no query, so nothing
+  // runs on the client while the pool hands it out.
+  const pid = (client as pg.PoolClient & { processID?: number }).processID
+  if (!pid) return
   try {
-    const { rows } = await client.query<{ pid: number }>('select pg_backend_pid() as pid')
-    os.setPriority(rows[0]!.pid, WORKER_NICENESS)
+    os.setPriority(pid, WORKER_NICENESS)
   }
   catch {
     // Not allowed here: the worker's queries run at normal priority.

@@ -1,5 +1,5 @@
 import { missingParts, partRange } from '#shared/footage'
-import type { ClipWindow, SyncMark } from '#shared/footage'
+import type { RingMatch } from '#shared/footage'
 
 // Footage in the browser: the views of server/api/clubs/[clubId]/recordings/… and clips/…, and the
 // resumable upload that sends a file's parts straight to object storage.
@@ -26,15 +26,7 @@ export interface RecordingView {
   createdAt: string
 }
 
-export interface RingMatchView {
-  id: number
-  tournamentName: string
-  label: string
-  red: string | null
-  blue: string | null
-  marks: SyncMark[]
-  windows: { match: ClipWindow, bouts: (ClipWindow & { bout: number })[] } | null
-}
+export type RingMatchView = RingMatch
 
 export interface ClipView {
   id: number
@@ -126,6 +118,7 @@ export function useFootageUpload(clubId: MaybeRefOrGetter<number>) {
   const fieldErrors = ref<Record<string, string>>({})
   const resumed = ref<{ had: number, of: number } | null>(null)
   let controller: AbortController | null = null
+  let paused = false
 
   const percent = computed(() => (total.value ? Math.min(100, Math.floor((sent.value / total.value) * 100)) : 0))
 
@@ -161,6 +154,7 @@ export function useFootageUpload(clubId: MaybeRefOrGetter<number>) {
     const club = toValue(clubId)
     controller?.abort()
     controller = new AbortController()
+    paused = false
     const signal = controller.signal
     error.value = null
     fieldErrors.value = {}
@@ -209,7 +203,11 @@ export function useFootageUpload(clubId: MaybeRefOrGetter<number>) {
     }
     catch (err) {
       controller.abort()
-      if (err instanceof DOMException && err.name === 'AbortError' && state.value === 'idle') return null
+      if (paused) {
+        state.value = 'interrupted'
+        error.value = 'Paused. Press Resume (or choose the same file again) to send the rest.'
+        return null
+      }
       fieldErrors.value = apiFieldErrors(err)
       const status = apiStatus(err)
       error.value = status !== undefined && status < 500
@@ -221,7 +219,7 @@ export function useFootageUpload(clubId: MaybeRefOrGetter<number>) {
   }
 
   function stop() {
-    state.value = 'idle'
+    paused = true
     controller?.abort()
   }
 

@@ -4,7 +4,7 @@ import { z } from 'zod'
 import { deriveMatch } from '#shared/rules'
 import { idParamSchema } from '#shared/schemas/club'
 import { DEFAULT_MARK_KINDS, entryMark, positionInRecording, suggestWindows } from '#shared/footage'
-import type { ClipWindow, SyncMark } from '#shared/footage'
+import type { RingMatch, SyncMark } from '#shared/footage'
 import type { DbTx } from './events'
 
 // Recordings and clips: finding them within the club, what the pages are shown, and where the
@@ -92,16 +92,6 @@ export async function clipView(clip: Clip) {
 
 export function recordingNotReady(rec: Recording, doing: string) {
   return createError({ statusCode: 409, statusMessage: 'Conflict', message: `The recording is ${rec.status}: ${doing} once it is ready` })
-}
-
-export interface RingMatch {
-  id: number
-  tournamentName: string
-  label: string
-  red: string | null
-  blue: string | null
-  marks: SyncMark[]
-  windows: { match: ClipWindow, bouts: (ClipWindow & { bout: number })[] } | null
 }
 
 /**

@@ -94,6 +94,17 @@ export interface SyncMark {
 
 export interface ClipWindow { startMs: number, endMs: number }
 
+/** A match fenced in a recording's ring, with its marks in the recording and the suggested clips. */
+export interface RingMatch {
+  id: number
+  tournamentName: string
+  label: string
+  red: string | null
+  blue: string | null
+  marks: SyncMark[]
+  windows: { match: ClipWindow, bouts: (ClipWindow & { bout: number })[] } | null
+}
+
 /** Before a match's first entry: the salute, the call and the first exchange. Our own figure. */
 export const MATCH_LEAD_MS = 15_000
 /** After an entry: the halt and the director's call. Our own figure. */

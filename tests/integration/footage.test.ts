@@ -50,7 +50,7 @@ async function putPart(client: Client, recordingId: number, partNumber: number, 
   const urls = await client.post(`${base()}/${recordingId}/part-urls`, { partNumbers: [partNumber] })
   expect(urls.status).toBe(200)
   const body = bytes.subarray((partNumber - 1) * partSize, Math.min(bytes.length, partNumber * partSize))
-  const res = await fetch(urls.data.urls[0].url, { method: 'PUT', body })
+  const res = await fetch(urls.data.urls[0].url, { method: 'PUT', body: new Uint8Array(body) })
   expect(res.status).toBe(200)
   return { partNumber, etag: res.headers.get('etag')! }
 }
@@ -227,7 +227,7 @@ describe('footage that is not right', () => {
     const res = await commentator.post(base(), { eventId: f.eventId, ring, title: 'Notes', fileName: 'notes.mp4', contentType: 'video/mp4', bytes: text.length })
     expect(res.status).toBe(201)
     const urls = await commentator.post(`${base()}/${res.data.id}/part-urls`, { partNumbers: [1] })
-    const put = await fetch(urls.data.urls[0].url, { method: 'PUT', body: text })
+    const put = await fetch(urls.data.urls[0].url, { method: 'PUT', body: new Uint8Array(text) })
     const done = await commentator.post(`${base()}/${res.data.id}/complete`, { parts: [{ partNumber: 1, etag: put.headers.get('etag') }] })
     expect(done.status).toBe(200)
     const detail = await readyRecording(res.data.id)

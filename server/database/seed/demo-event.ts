@@ -169,7 +169,7 @@ async function demoFootage(clubApi: string, eventId: number, from: number, to: n
     const { urls } = await api<{ urls: { partNumber: number, url: string }[] }>('POST', `${clubApi}/recordings/${rec.id}/part-urls`, { partNumbers })
     const parts = []
     for (const { partNumber, url } of urls) {
-      const res = await fetch(url, { method: 'PUT', body: bytes.subarray((partNumber - 1) * rec.partSize, partNumber * rec.partSize) })
+      const res = await fetch(url, { method: 'PUT', body: new Uint8Array(bytes.subarray((partNumber - 1) * rec.partSize, partNumber * rec.partSize)) })
       if (!res.ok) throw new Error(`the store answered ${res.status} to part ${partNumber}`)
       parts.push({ partNumber, etag: res.headers.get('etag') ?? '' })
     }

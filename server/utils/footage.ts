@@ -3,7 +3,7 @@ import { and, asc, between, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { deriveMatch } from '#shared/rules'
 import { idParamSchema } from '#shared/schemas/club'
-import { DEFAULT_MARK_KINDS, entryMark, positionInRecording, suggestWindows } from '#shared/footage'
+import { DEFAULT_MARK_KINDS, entryMark, partCount, positionInRecording, suggestWindows } from '#shared/footage'
 import type { RingMatch, SyncMark } from '#shared/footage'
 import type { DbTx } from './events'
 
@@ -52,7 +52,7 @@ export function recordingView(rec: Recording) {
     status: rec.status,
     error: rec.error,
     partSize: rec.partSize,
-    partCount: Math.max(1, Math.ceil(rec.bytes / rec.partSize)),
+    partCount: partCount(rec.bytes, rec.partSize),
     durationMs: rec.durationMs,
     frameRate: rec.frameRate,
     width: rec.width,

@@ -11,7 +11,7 @@ test.afterAll(async () => {
   await pool.end()
 })
 
-test('a commentator uploads through an interruption, syncs the marks and cuts a match with its poster', async ({ page }) => {
+test('a commentator uploads through an interruption and a reload, syncs the marks and cuts a match with its poster', async ({ page }) => {
   test.setTimeout(180_000)
   // The demo desk's first entry in ring 1 of the demo event; the camera started 3 s before it.
   const { rows } = await pool.query<{ at: Date }>(`
@@ -59,7 +59,12 @@ test('a commentator uploads through an interruption, syncs the marks and cuts a 
   await expect(page.getByRole('alert')).toContainText('interrupted')
   expect(puts.filter(n => n === '1')).toHaveLength(1)
 
-  await page.getByRole('button', { name: 'Resume the upload' }).click()
+  // The tablet reloads the page: the file is chosen again and the upload carries on.
+  await page.reload()
+  await page.waitForFunction(() => Boolean((document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__))
+  await expect(page.getByTestId(/^recording-/).filter({ hasText: 'Upload not finished' }).last()).toContainText('Ring 1, first hour')
+  await page.getByLabel('Video file').setInputFiles(file)
+  await page.getByRole('button', { name: 'Upload', exact: true }).click()
   await expect(bar).toHaveAttribute('aria-valuenow', '100')
   await expect(page.getByText(/being read/)).toBeVisible()
   // Part 1 had arrived: the store listed it, and it was not sent again.

@@ -12,6 +12,8 @@ import { Failure, info } from './ui.mjs'
 export const DEBIAN_PACKAGES = [
   { name: 'postgresql', file: '/usr/lib/postgresql/*/bin/initdb', for: ['start', 'test'] },
   { name: 'chromium', file: '/usr/bin/chromium', for: ['e2e'] },
+  // Footage: probing uploads, cutting clips and their poster frames.
+  { name: 'ffmpeg', file: '/usr/bin/ffprobe', for: ['start', 'test'] },
 ]
 
 const MIN_NODE = [20, 19]

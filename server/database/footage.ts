@@ -54,6 +54,11 @@ export const clips = pgTable('clips', {
   startMs: integer('start_ms').notNull(),
   endMs: integer('end_ms').notNull(),
   mode: text('mode').$type<'copy' | 'exact'>().notNull(),
+  // What was asked for: `auto` copies when a keyframe is within `toleranceMs` before the start.
+  requestedMode: text('requested_mode').$type<'auto' | 'copy' | 'exact'>().notNull().default('auto'),
+  toleranceMs: integer('tolerance_ms').notNull().default(500),
+  // Where the cut file really starts in the recording (a copy cut starts at a keyframe).
+  cutStartMs: integer('cut_start_ms'),
   status: text('status').$type<'queued' | 'cutting' | 'ready' | 'failed'>().notNull().default('queued'),
   progress: integer('progress').notNull().default(0),
   objectKey: text('object_key'),
@@ -70,6 +75,8 @@ export const clips = pgTable('clips', {
   check('clips_progress', sql`${t.progress} between 0 and 100`),
   check('clips_status', sql`${t.status} in ('queued', 'cutting', 'ready', 'failed')`),
   check('clips_mode', sql`${t.mode} in ('copy', 'exact')`),
+  check('clips_requested_mode', sql`${t.requestedMode} in ('auto', 'copy', 'exact')`),
+  check('clips_tolerance', sql`${t.toleranceMs} >= 0`),
 ])
 
 /** The club's own list of kinds of action for marks (hit, afterblow, double, parry …). */

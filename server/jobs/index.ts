@@ -1,4 +1,6 @@
 import { renderCardBatch } from './cardBatch'
+import { cutClip } from './footageClip'
+import { probeRecording } from './footageProbe'
 
 // Every background job, registered in one place: its handler and how the queue treats it. A job
 // is enqueued from anywhere with `enqueueJob(name, data)` (server/utils/jobs.ts) and runs in a
@@ -26,6 +28,10 @@ const define = <Data>(definition: JobDefinition<Data>) => definition
 export const JOBS = {
   // The demo event's 272 cards take under a minute; ten minutes leaves room for large events.
   'cards-batch': define({ handle: renderCardBatch, expireInSeconds: 10 * 60, retryLimit: 2 }),
+  // ffprobe reads only the container's index over HTTP: seconds, even for a long recording.
+  'footage-probe': define({ handle: probeRecording, expireInSeconds: 5 * 60, retryLimit: 2 }),
+  // A 30-minute clip re-encoded exactly takes a few minutes on two cores.
+  'footage-clip': define({ handle: cutClip, expireInSeconds: 30 * 60, retryLimit: 1 }),
 }
 
 export type JobName = keyof typeof JOBS

@@ -3,7 +3,7 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { sql } from 'drizzle-orm'
 import { JOBS } from '../jobs'
-import type { JobData, JobName } from '../jobs'
+import type { JobData, JobName, JobRun } from '../jobs'
 
 // The background job queue: pg-boss on the app's own PostgreSQL (schema `pgboss`, which it makes
 // and migrates itself). Every process can enqueue; only worker processes take jobs, and any
@@ -68,7 +68,9 @@ export async function startJobWorkers() {
   for (const [name, job] of Object.entries(JOBS) as [JobName, (typeof JOBS)[JobName]][]) {
     const workerId = await queue.work<JobData<typeof name>>(name, { pollingIntervalSeconds: POLLING_SECONDS, batchSize: 1, includeMetadata: true }, async ([item]) => {
       if (!item) return
-      await job.handle(item.data, { id: item.id, retryCount: item.retryCount, lastAttempt: item.retryCount >= job.retryLimit })
+      // Each kind's handler takes that kind's data; TypeScript cannot pair them up across the loop.
+      const handle = job.handle as (data: JobData<typeof name>, run: JobRun) => Promise<void>
+      await handle(item.data, { id: item.id, retryCount: item.retryCount, lastAttempt: item.retryCount >= job.retryLimit })
     })
     workers.set(name, workerId)
   }

@@ -1,11 +1,17 @@
 // Loads the demo event, the Wrenmouth Harvest Open, through the app's own API as the demo
 // organizer would: rule sets, the event, two tournaments, entries by CSV, check-in, pools and
 // results. Run after the app is up; safe to run again (an existing event is left as it is).
+import { execFile } from 'node:child_process'
+import { mkdtemp, readFile, rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import path from 'node:path'
+import { promisify } from 'node:util'
 import type { MatchEntry, Side } from '../../../shared/rules'
 import { randomFromKey } from '../../../shared/utils/random'
 
 const APP = process.env.DEMO_APP_URL ?? 'http://127.0.0.1:3000'
 const ORGANIZER = { email: 'organizer@saltmarsh.example', password: 'saltmarsh-organizer' }
+const COMMENTATOR = { email: 'commentary@saltmarsh.example', password: 'saltmarsh-commentary' }
 const EVENT_SLUG = 'wrenmouth-harvest-open'
 
 // Invented fighters of invented clubs (the demo scenario); the number is a hidden skill that
@@ -99,6 +105,8 @@ async function main() {
     emergencyNumber: '112', firstAidPoint: 'Beside ring 1, at the harbour door',
   })
   const eventApi = `${clubApi}/events/${event.id}`
+  // The desk stamps each entry with the server's time: the demo footage starts a little before.
+  const fencingFrom = Date.now()
 
   const plan = [
     { name: 'Sword and buckler', weapon: 'sword and buckler', ruleSetId: sb.id, fighters: SWORD_AND_BUCKLER, format: 'first-hit' as const, share: 1 },
@@ -126,6 +134,51 @@ async function main() {
   }
   await api('POST', `${eventApi}/publish`)
   console.log(`demo event: Wrenmouth Harvest Open published at ${APP}/site/saltmarsh-sword-guild/events/${EVENT_SLUG}`)
+  // Footage is a bonus: the demo event stands without it.
+  await demoFootage(clubApi, event.id, fencingFrom, Date.now()).catch((err) => {
+    console.log(`demo event: no demo footage (${err instanceof Error ? err.message : err})`)
+  })
+}
+
+/**
+ * A made-up recording of ring 1 (ffmpeg's test picture and a tone, no real footage) covering the
+ * time the demo desk recorded its bouts, uploaded the way the footage page does it, so that the
+ * demo has marks to sync and matches to cut. Skipped without ffmpeg.
+ */
+async function demoFootage(clubApi: string, eventId: number, from: number, to: number) {
+  const run = promisify(execFile)
+  if (!(await run('ffmpeg', ['-version']).then(() => true, () => false))) {
+    console.log('demo event: ffmpeg is not installed, so no demo footage')
+    return
+  }
+  const dir = await mkdtemp(path.join(tmpdir(), 'unscathed-demo-'))
+  try {
+    // MP4 keeps the start in whole seconds; the picture runs from 5 s before the first bout.
+    const start = Math.floor((from - 5000) / 1000) * 1000
+    const seconds = Math.min(90, Math.max(60, Math.ceil((to - start) / 1000) + 10))
+    const file = path.join(dir, 'ring-1-demo.mp4')
+    await run('ffmpeg', ['-v', 'error', '-y', '-f', 'lavfi', '-i', 'testsrc2=size=640x360:rate=25', '-f', 'lavfi', '-i', 'sine=frequency=330:sample_rate=48000',
+      '-t', String(seconds), '-c:v', 'libx264', '-preset', 'ultrafast', '-crf', '30', '-pix_fmt', 'yuv420p', '-g', '50', '-c:a', 'aac', '-b:a', '96k',
+      '-metadata', `creation_time=${new Date(start).toISOString()}`, '-movflags', '+faststart', file])
+    const bytes = await readFile(file)
+    await api('POST', '/api/auth/sign-in', COMMENTATOR)
+    const rec = await api<{ id: number, partSize: number, partCount: number }>('POST', `${clubApi}/recordings`, {
+      eventId, ring: 1, title: 'Ring 1, pools (demo footage)', fileName: 'ring-1-demo.mp4', contentType: 'video/mp4', bytes: bytes.length,
+    })
+    const partNumbers = Array.from({ length: rec.partCount }, (_, i) => i + 1)
+    const { urls } = await api<{ urls: { partNumber: number, url: string }[] }>('POST', `${clubApi}/recordings/${rec.id}/part-urls`, { partNumbers })
+    const parts = []
+    for (const { partNumber, url } of urls) {
+      const res = await fetch(url, { method: 'PUT', body: new Uint8Array(bytes.subarray((partNumber - 1) * rec.partSize, partNumber * rec.partSize)) })
+      if (!res.ok) throw new Error(`the store answered ${res.status} to part ${partNumber}`)
+      parts.push({ partNumber, etag: res.headers.get('etag') ?? '' })
+    }
+    await api('POST', `${clubApi}/recordings/${rec.id}/complete`, { parts })
+    console.log(`demo event: ${seconds} s of demo footage for ring 1 uploaded (it is read by the worker in a moment)`)
+  }
+  finally {
+    await rm(dir, { recursive: true, force: true })
+  }
 }
 
 main().catch((err) => {

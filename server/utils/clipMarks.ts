@@ -34,9 +34,11 @@ export interface MarkClipView {
   frameRate: number
   hasVideo: boolean
   hasPoster: boolean
+  // Anyone may watch it (the public player): cut, and its event published.
+  isPublic: boolean
 }
 
-type MarkClip = MarkClipView & { clubId: number, objectKey: string | null, posterKey: string | null, published: boolean }
+type MarkClip = MarkClipView & { clubId: number, objectKey: string | null, posterKey: string | null }
 
 async function loadClip(db: DbTx, where: ReturnType<typeof and>): Promise<MarkClip | undefined> {
   const c = schema.clips
@@ -50,7 +52,7 @@ async function loadClip(db: DbTx, where: ReturnType<typeof and>): Promise<MarkCl
     .innerJoin(e, eq(e.id, r.eventId))
     .where(where)
   if (!row) return undefined
-  const { startMs, endMs, frameRate, ...rest } = row
+  const { startMs, endMs, frameRate, published, ...rest } = row
   return {
     ...rest,
     // Until ffprobe has read the cut file, the window asked for is the best length known.
@@ -58,6 +60,7 @@ async function loadClip(db: DbTx, where: ReturnType<typeof and>): Promise<MarkCl
     frameRate: frameRateOf(frameRate),
     hasVideo: row.status === 'ready' && row.objectKey !== null,
     hasPoster: row.posterKey !== null,
+    isPublic: published && row.status === 'ready' && row.objectKey !== null,
   }
 }
 
@@ -76,8 +79,8 @@ export async function findPublicClip(db: DbTx, clipId: number): Promise<MarkClip
 }
 
 export function markClipView(clip: MarkClip): MarkClipView {
-  const { id, title, status, durationMs, frameRate, hasVideo, hasPoster } = clip
-  return { id, title, status, durationMs, frameRate, hasVideo, hasPoster }
+  const { id, title, status, durationMs, frameRate, hasVideo, hasPoster, isPublic } = clip
+  return { id, title, status, durationMs, frameRate, hasVideo, hasPoster, isPublic }
 }
 
 /** The club's kinds in its order. A club that has none gets the default list written first. */
@@ -162,7 +165,7 @@ export async function sendClipFile(event: H3Event, key: string, headers: Record<
     throw notFoundError('File')
   }
   if (!object.Body) throw notFoundError('File')
-  setResponseHeaders(event, {
+  const sent: Record<string, string> = {
     'content-type': object.ContentType ?? 'application/octet-stream',
     'accept-ranges': 'bytes',
     'x-content-type-options': 'nosniff',
@@ -170,7 +173,8 @@ export async function sendClipFile(event: H3Event, key: string, headers: Record<
     ...(object.ContentRange ? { 'content-range': object.ContentRange } : {}),
     ...(object.ETag ? { etag: object.ETag } : {}),
     ...headers,
-  })
+  }
+  setResponseHeaders(event, sent)
   if (range && object.ContentRange) setResponseStatus(event, 206)
   return sendStream(event, object.Body as Readable)
 }

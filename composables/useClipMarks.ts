@@ -1,31 +1,9 @@
 import type { MaybeRefOrGetter } from 'vue'
+import type { MarkClipView, MarkKindView, MarkView } from '#shared/footage/marks'
 
-export interface ClipMark {
-  id: number
-  atMs: number
-  kindId: number | null
-  kind: string | null
-  label: string
-  comment: string
-  entryId?: string | null
-}
-
-export interface ClipDetails {
-  id: number
-  title: string
-  status: string
-  durationMs: number
-  frameRate: number
-  hasVideo: boolean
-  hasPoster: boolean
-  isPublic: boolean
-}
-
-export interface MarkKind {
-  id: number
-  name: string
-  usedBy: number
-}
+export type ClipMark = Omit<MarkView, 'entryId'> & { entryId?: string | null }
+export type ClipDetails = MarkClipView
+export type MarkKind = MarkKindView
 
 export function clipMediaUrl(clubId: number, clipId: number, file: 'video' | 'poster' | 'marks.vtt') {
   return `/media/clubs/${clubId}/clips/${clipId}/${file}`

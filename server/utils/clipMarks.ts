@@ -5,6 +5,7 @@ import { z } from 'zod'
 import { GetObjectCommand } from '@aws-sdk/client-s3'
 import { idParamSchema } from '#shared/schemas/club'
 import { DEFAULT_MARK_KINDS, frameRateOf } from '#shared/footage/marks'
+import type { MarkClipView, MarkKindView, MarkView } from '#shared/footage/marks'
 import { marksToVtt } from '#shared/footage/vtt'
 import type { Role } from '#shared/utils/roles'
 import type { DbTx } from './events'
@@ -15,28 +16,6 @@ export const MARK_KIND_ROLES: readonly Role[] = ['commentator', 'editor', 'admin
 export const markClipParams = z.object({ clubId: idParamSchema, clipId: idParamSchema })
 export const markParams = markClipParams.extend({ markId: idParamSchema })
 export const markKindParams = z.object({ clubId: idParamSchema, kindId: idParamSchema })
-
-export interface MarkView {
-  id: number
-  atMs: number
-  kindId: number | null
-  kind: string | null
-  label: string
-  comment: string
-  entryId: string | null
-}
-
-export interface MarkClipView {
-  id: number
-  title: string
-  status: string
-  durationMs: number
-  frameRate: number
-  hasVideo: boolean
-  hasPoster: boolean
-  // Anyone may watch it (the public player): cut, and its event published.
-  isPublic: boolean
-}
 
 type MarkClip = MarkClipView & { clubId: number, objectKey: string | null, posterKey: string | null }
 
@@ -94,7 +73,7 @@ export async function clubMarkKinds(db: DbTx, clubId: number) {
   return list()
 }
 
-export async function markKindsView(db: DbTx, clubId: number) {
+export async function markKindsView(db: DbTx, clubId: number): Promise<{ kinds: MarkKindView[] }> {
   const k = schema.markKinds
   const m = schema.marks
   const kinds = await clubMarkKinds(db, clubId)

@@ -14,6 +14,36 @@ export const MARK_KINDS_MAX = 40
 /** How long a mark's text stays up when no later mark ends it. */
 export const MARK_HOLD_MS = 4000
 
+/** A mark as the API answers it. */
+export interface MarkView {
+  id: number
+  atMs: number
+  kindId: number | null
+  kind: string | null
+  label: string
+  comment: string
+  entryId: string | null
+}
+
+/** A clip as marking and the player need it. */
+export interface MarkClipView {
+  id: number
+  title: string
+  status: string
+  durationMs: number
+  frameRate: number
+  hasVideo: boolean
+  hasPoster: boolean
+  // Anyone may watch it (the public player): cut, and its event published.
+  isPublic: boolean
+}
+
+export interface MarkKindView {
+  id: number
+  name: string
+  usedBy: number
+}
+
 export interface TimedMark {
   id: number
   atMs: number

@@ -3,7 +3,7 @@ import type { Page } from '@playwright/test'
 import { and, eq } from 'drizzle-orm'
 import { makeClip } from '../support/clips'
 import type { TestClip } from '../support/clips'
-import { db, pool, schema } from '../support/fixtures'
+import { db, makeClub, PASSWORD, pool, schema } from '../support/fixtures'
 import { DEMO_CLUB, demo, signIn } from './support'
 
 // Clips are made in the demo club, on its published demo event, the way the footage pipeline
@@ -56,6 +56,7 @@ test('a commentator marks the current time with a key, steps frames, moves, edit
   await expect(list).toContainText('0:01.12')
   await expect.poll(async () => (await marksOf(clip))[0]?.atMs).toBe(1120)
   const timeline = page.getByTestId('clip-timeline')
+  await timeline.scrollIntoViewIfNeeded()
   const box = (await timeline.boundingBox())!
   const handle = timeline.getByRole('button', { name: /^Hit at/ })
   const from = (await handle.boundingBox())!
@@ -84,6 +85,41 @@ test('a commentator marks the current time with a key, steps frames, moves, edit
   const back = await marksOf(clip)
   expect(back).toHaveLength(1)
   expect(back[0]!.comment).toBe('Cut to the wrist as the bind broke')
+})
+
+test('a commentator edits the club’s kinds of action, and a kind in use cannot be deleted', async ({ page }) => {
+  // A club of its own, so the demo club's list stays as it is.
+  const club = await makeClub('kinds-e2e')
+  const clip = await makeClip(club.id)
+  await signIn(page, { email: club.members.commentator.email, password: PASSWORD })
+  await page.goto(`/clubs/${club.slug}/footage/clips/${clip.id}`)
+  const panel = page.locator('section', { has: page.getByRole('heading', { name: 'Kinds of action' }) })
+  const names = () => panel.getByRole('listitem').getByRole('textbox')
+  await expect(names()).toHaveCount(6)
+  await expect(names().first()).toHaveValue('hit')
+
+  await panel.getByLabel('New kind').fill('Disarm')
+  await panel.getByRole('button', { name: 'Add kind' }).click()
+  await expect(names()).toHaveCount(7)
+  await expect(names().last()).toHaveValue('Disarm')
+  await panel.getByRole('button', { name: 'Move Disarm up' }).click()
+  await expect(names().nth(5)).toHaveValue('Disarm')
+
+  await names().nth(4).fill('Feint in tempo')
+  await names().nth(4).press('Enter')
+  await expect.poll(async () => (await db.select().from(schema.markKinds).where(eq(schema.markKinds.clubId, club.id)))
+    .sort((a, b) => a.position - b.position).map(k => k.name))
+    .toEqual(['hit', 'afterblow', 'double', 'parry', 'Feint in tempo', 'Disarm', 'footwork'])
+
+  // A mark of the first kind, then that kind cannot go.
+  await names().nth(4).blur()
+  await page.keyboard.press('m')
+  await expect(page.getByTestId('marks-list').getByRole('button')).toHaveCount(1)
+  await panel.getByRole('button', { name: 'Delete hit' }).click()
+  await expect(panel.getByRole('alert')).toContainText('1 mark uses this kind, so it cannot be deleted')
+  await expect(names()).toHaveCount(7)
+  await panel.getByRole('button', { name: 'Delete footwork' }).click()
+  await expect(names()).toHaveCount(6)
 })
 
 test('a reader of the embedded player jumps to a mark from the list and reads its words over the playing video', async ({ page }) => {
@@ -120,22 +156,27 @@ test('a reader of the embedded player jumps to a mark from the list and reads it
   await expect.poll(() => video.evaluate((v: HTMLVideoElement) => v.currentTime)).toBeCloseTo(3, 1)
   await expect(marks.nth(1)).toHaveAttribute('aria-current', 'true')
 
+  // Keyboard: a mark is reachable by focus and jumps the video with Enter.
+  await marks.nth(0).focus()
+  await page.keyboard.press('Enter')
+  await expect.poll(() => video.evaluate((v: HTMLVideoElement) => v.currentTime)).toBeCloseTo(0.5, 1)
+
+  // Played from there, each mark's words come up over the picture as the video reaches it.
+  const embed = page.frame({ url: /\/embed\/clips\// })!
   await video.evaluate((v: HTMLVideoElement) => {
     v.muted = true
     return v.play()
   })
-  const overlay = frame.getByTestId('player-overlay')
-  await expect(overlay).toContainText('Afterblow')
-  await expect(overlay).toContainText('late, but counted')
-  expect(await video.evaluate((v: HTMLVideoElement) => v.paused)).toBe(false)
+  const showsWhilePlaying = (words: string[]) => embed.waitForFunction((expected) => {
+    const overlay = document.querySelector('[data-testid="player-overlay"]')?.textContent ?? ''
+    const playing = !(document.querySelector('video') as HTMLVideoElement).paused
+    return playing && expected.every(word => overlay.includes(word))
+  }, words, { polling: 'raf', timeout: 10_000 })
+  await showsWhilePlaying(['Hit', 'to the forearm'])
+  await showsWhilePlaying(['Afterblow', 'late, but counted'])
 
   // The marks track is attached for players that read tracks.
   await expect(frame.locator('track[kind="metadata"]')).toHaveAttribute('src', `/media/public/clips/${clip.id}/marks.vtt`)
-
-  // Keyboard: the first mark is reachable with Tab and jumps the video with Enter.
-  await marks.nth(0).focus()
-  await page.keyboard.press('Enter')
-  await expect.poll(() => video.evaluate((v: HTMLVideoElement) => v.currentTime)).toBeLessThan(2.5)
 })
 
 test('the embedded player of a clip whose event is not published is not found', async ({ page }) => {

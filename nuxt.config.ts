@@ -47,6 +47,8 @@ export default defineNuxtConfig({
     devInboxUrl: '',
     // 'true' only behind a proxy that sets X-Forwarded-For; otherwise the header is ignored.
     trustProxy: 'false',
+    // Origins besides this app's own that may show the public clip player in an iframe, space-separated.
+    embedFrameAncestors: '',
     public: {
       devInbox: false,
     },

@@ -5,8 +5,8 @@ import type { TestClub } from '../support/fixtures'
 import { db, makeClub, schema, tableCounts } from '../support/fixtures'
 import { BASE_URL, Client } from '../support/http'
 import type { PublishedPool } from '../support/posts'
-import { activeParts, insertClip, publishedPool } from '../support/posts'
-import { as } from '../support/tournament'
+import { FOUR, activeParts, insertClip, publishedPool } from '../support/posts'
+import { as, drawPools, makeFixture } from '../support/tournament'
 
 // Breakdown posts against the built app and PostgreSQL: the workflow by role, the version check,
 // revisions, scheduled publishing, rendering with embeds and the sanitiser, the feeds and the
@@ -112,6 +112,7 @@ describe('breakdown workflow', () => {
       [editor.post(`${posts()}/${post.id}/status`, { expectedVersion: 1, to: 'archived' }), 400, /^to: /],
       [editor.post(`${posts()}/${post.id}/status`, { expectedVersion: 1, to: 'published', publishAt: 'next tuesday' }), 400, /^publishAt: /],
       [editor.post(`${posts()}/${post.id}/status`, { expectedVersion: 1, to: 'review', publishAt: '2030-01-01T10:00:00Z' }), 400, /^publishAt: /],
+      [editor.post(`${posts()}/${post.id}/status`, { expectedVersion: 1, to: 'published', publishAt: '2020-01-01T10:00:00Z' }), 400, /^publishAt: .*future/],
       [editor.post(`${posts()}/${post.id}/status`, { expectedVersion: 1, to: 'draft' }), 409, /^to: /],
       [editor.post(`${posts()}/${post.id}/revisions/99/restore`, { expectedVersion: 1 }), 404, /Revision not found/],
       [editor.get(`${posts()}?status=gone`), 400, /^status: /],
@@ -350,5 +351,17 @@ describe('feeds and the sitemap', () => {
   it('answers 404 for a club that does not exist', async () => {
     expect((await new Client().get('/site/no-such-club-here/feed.rss')).status).toBe(404)
     expect((await new Client().get('/site/no-such-club-here/sitemap.xml')).status).toBe(404)
+  })
+})
+
+describe('the club site\'s fighter page', () => {
+  it('shows a fighter\'s record across every published event of the club', async () => {
+    const second = await makeFixture(club, organizer, { fighters: FOUR, poolSize: 4 })
+    await drawPools(second)
+    expect((await organizer.post(`/api/clubs/${club.id}/events/${second.eventId}/publish`)).status).toBe(200)
+    const fighterId = (await organizer.get(`/api/clubs/${club.id}/fighters?q=${encodeURIComponent('Hedda Crane')}`)).data.fighters[0].id
+    const res = await new Client().get(`/api/public/fighters/${club.slug}/${fighterId}`)
+    expect(res.status).toBe(200)
+    expect(res.data.results.map((r: { event: { slug: string } }) => r.event.slug).sort()).toEqual([pool.fixture.eventSlug, second.eventSlug].sort())
   })
 })

@@ -10,6 +10,8 @@ export default defineEventHandler(async (event) => {
   const { expectedVersion, to, publishAt } = await validBody(event, postStatusSchema)
   const publisher = isPublisher(membership.roles)
   if (publishAt !== null && to !== 'published') throw fieldError(400, 'publishAt', 'A time is only for publishing')
+  // A minute of leeway for clocks and slow forms; further back is a mistake, not a schedule.
+  if (publishAt !== null && new Date(publishAt).getTime() < Date.now() - 60_000) throw fieldError(400, 'publishAt', 'Choose a time in the future, or publish now')
   const db = useDb()
   return db.transaction(async (tx) => {
     const post = await findPost(tx, clubId, postId, { lock: true })

@@ -13,7 +13,8 @@ type Club = typeof schema.clubs.$inferSelect
 
 const marked = new Marked({ gfm: true, breaks: false, async: false })
 
-const escapeHtml = (text: string) => text.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
+/** Text made safe inside HTML or XML, in elements and in quoted attributes. */
+export const escapeMarkup = (text: string) => text.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
 
 const NOTICES: Record<Embed['kind'], string> = {
   clip: 'This clip is not available.',
@@ -22,7 +23,7 @@ const NOTICES: Record<Embed['kind'], string> = {
   card: 'This result card is not available.',
 }
 
-const notice = (text: string) => `<p class="embed embed-notice" role="note">${escapeHtml(text)}</p>`
+const notice = (text: string) => `<p class="embed embed-notice" role="note">${escapeMarkup(text)}</p>`
 
 const percent = (rate: number | null) => (rate === null ? '–' : `${Math.round(rate * 100)}%`)
 
@@ -33,7 +34,7 @@ async function clipHtml(tx: DbTx, club: Club, clipId: number) {
     .innerJoin(r, eq(r.id, c.recordingId)).innerJoin(schema.events, eq(schema.events.id, r.eventId))
     .where(and(eq(c.id, clipId), eq(c.clubId, club.id), eq(c.status, 'ready'), eq(schema.events.published, true)))
   if (!clip) return null
-  const title = escapeHtml(clip.title)
+  const title = escapeMarkup(clip.title)
   return `<figure class="embed embed-clip"><iframe src="${appLink(`/embed/clips/${clip.id}`)}" title="Clip: ${title}" width="640" height="360" loading="lazy" allowfullscreen></iframe><figcaption>${title}</figcaption></figure>`
 }
 
@@ -49,28 +50,29 @@ async function poolHtml(tx: DbTx, club: Club, tournamentId: number, poolNumber: 
   const table = tables.pools.find(p => p.number === poolNumber)
   if (!table) return null
   const head = ['Rank', 'Fighter', 'Club', 'Won', 'Lost', 'Unharmed bouts', 'Survival rate', 'Scored', 'Received', 'Doubles']
-  const rows = table.rows.map(x => `<tr><td>${x.rank}</td><th scope="row">${escapeHtml(x.fighter.name)}</th><td>${escapeHtml(x.fighter.clubName)}</td>`
+  const rows = table.rows.map(x => `<tr><td>${x.rank}</td><th scope="row">${escapeMarkup(x.fighter.name)}</th><td>${escapeMarkup(x.fighter.clubName)}</td>`
     + `<td>${x.wins}</td><td>${x.losses}</td><td>${x.unharmed}</td><td>${percent(x.survivalRate)}</td><td>${x.scored}</td><td>${x.received}</td><td>${x.doubles}</td></tr>`)
-  const caption = `${escapeHtml(row.tournament.name)}, pool ${poolNumber}${table.complete ? '' : ' (still being fenced)'}`
-  return `<figure class="embed embed-pool"><table><caption>${caption}</caption><thead><tr>${head.map(h => `<th scope="col">${h}</th>`).join('')}</tr></thead><tbody>${rows.join('')}</tbody></table></figure>`
+  const caption = `${escapeMarkup(row.tournament.name)}, pool ${poolNumber}${table.complete ? '' : ' (still being fenced)'}`
+  // A wide table scrolls sideways inside its box: the box takes focus so keyboards can scroll it.
+  return `<div class="embed embed-pool" role="region" tabindex="0" aria-label="${caption}"><table><caption>${caption}</caption><thead><tr>${head.map(h => `<th scope="col">${h}</th>`).join('')}</tr></thead><tbody>${rows.join('')}</tbody></table></div>`
 }
 
 const RESULT_WORDS = { 'draw': 'Draw', 'both-lose': 'Both lost' } as const
 
 async function matchHtml(tx: DbTx, club: Club, matchId: number) {
   const { view } = await findPublicMatch(tx, club.slug, matchId)
-  const side = (s: 'a' | 'b') => `${escapeHtml(view[s].name)} (${escapeHtml(view[s].clubName)})`
+  const side = (s: 'a' | 'b') => `${escapeMarkup(view[s].name)} (${escapeMarkup(view[s].clubName)})`
   const result = view.result === null
     ? (view.status === 'scheduled' ? 'Still to be fenced' : 'Under way')
-    : view.result === 'a' || view.result === 'b' ? `${escapeHtml(view[view.result].name)} won` : RESULT_WORDS[view.result]
+    : view.result === 'a' || view.result === 'b' ? `${escapeMarkup(view[view.result].name)} won` : RESULT_WORDS[view.result]
   return `<div class="embed embed-match"><p class="embed-score"><a href="${appLink(`/site/${club.slug}/matches/${matchId}`)}">${side('a')} ${view.score.a} – ${view.score.b} ${side('b')}</a></p>`
-    + `<p class="embed-meta">${escapeHtml(view.stage)} · ${result}</p></div>`
+    + `<p class="embed-meta">${escapeMarkup(view.stage)} · ${result}</p></div>`
 }
 
 async function cardHtml(tx: DbTx, club: Club, subject: PublicCardSubject, id: string) {
   const { data } = await publicCardData(tx, club.slug, subject, id)
   const alt = cardAltText(cardInput(data, 'link', { clubName: club.name, primary: club.primaryColor, secondary: club.secondaryColor, logo: null }))
-  return `<figure class="embed embed-card"><img src="${appLink(publicCardPath(club.slug, subject, id))}" alt="${escapeHtml(alt)}" width="1200" height="630" loading="lazy"></figure>`
+  return `<figure class="embed embed-card"><img src="${appLink(publicCardPath(club.slug, subject, id))}" alt="${escapeMarkup(alt)}" width="1200" height="630" loading="lazy"></figure>`
 }
 
 async function embedHtml(tx: DbTx, club: Club, embed: Embed): Promise<string | null> {

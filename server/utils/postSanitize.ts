@@ -28,6 +28,7 @@ const OPTIONS: sanitizeHtml.IOptions = {
     'th': ['scope', 'colspan', 'rowspan'],
     'td': ['colspan', 'rowspan'],
     'ol': ['start'],
+    'div': ['tabindex'],
     '*': ['class', 'role', 'aria-label'],
   },
   allowedClasses: { '*': EMBED_CLASSES },

@@ -1,4 +1,7 @@
 import { and, eq } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { z } from 'zod'
+import { slugSchema } from '#shared/schemas/club'
 import { splitBody } from '#shared/utils/embeds'
 import type { DbTx } from './events'
 
@@ -32,6 +35,14 @@ export async function postCardImage(db: DbTx, club: Club, post: Pick<LivePost, '
   return ev ? appLink(publicCardPath(club.slug, 'event', ev.slug)) : null
 }
 
-export function escapeXml(text: string) {
-  return text.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&apos;' })[c]!)
+const feedParams = z.object({ clubSlug: slugSchema })
+
+/** A feed's club and its newest live breakdowns, each with its body rendered as on the site. */
+export async function feedEntries(event: H3Event) {
+  const { clubSlug } = validParams(event, feedParams)
+  const db = useDb()
+  const club = await findPublicClub(db, clubSlug)
+  const posts = await livePosts(db, club.id, FEED_SIZE)
+  const entries = await Promise.all(posts.map(async post => ({ ...publicPostSummary(club, post), html: await renderPostBody(club, post.body) })))
+  return { club, site: appLink(`/site/${club.slug}`), entries }
 }

@@ -30,7 +30,7 @@ export default defineEventHandler(async (event) => {
   return [
     '<?xml version="1.0" encoding="UTF-8"?>',
     '<urlset xmlns="http://www.sitemaps.org/schemas/sitemap/0.9">',
-    ...urls.map(u => `<url><loc>${escapeXml(appLink(u.loc))}</loc>${u.lastmod ? `<lastmod>${u.lastmod.toISOString()}</lastmod>` : ''}</url>`),
+    ...urls.map(u => `<url><loc>${escapeMarkup(appLink(u.loc))}</loc>${u.lastmod ? `<lastmod>${u.lastmod.toISOString()}</lastmod>` : ''}</url>`),
     '</urlset>',
   ].join('\n')
 })

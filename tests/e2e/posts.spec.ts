@@ -128,8 +128,6 @@ test('axe-core finds no serious or critical problems on the club site\'s home, b
   for (const path of pages) {
     await page.goto(path)
     await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
-    const started = Date.now()
     expect(await seriousViolations(page), path).toEqual([])
-    console.log(`axe-core on ${path}: ${Date.now() - started} ms`)
   }
 })

@@ -53,17 +53,6 @@ export default defineNuxtConfig({
   },
   srcDir: '.',
   serverDir: 'server',
-  // The club site is read far more than it changes: its pages are rendered once and served from
-  // memory for 5 s (then once more while a fresh copy renders), so new results and breakdowns,
-  // scheduled ones included, show within a few seconds. The cached copy is rendered without the
-  // reader's cookies. Live pages and the feeds are always fresh. See DEVELOPERS.md.
-  routeRules: {
-    '/site/**': { swr: 5 },
-    '/site/*/events/*/live': { cache: false },
-    '/site/*/feed.rss': { cache: false },
-    '/site/*/feed.atom': { cache: false },
-    '/site/*/sitemap.xml': { cache: false },
-  },
   compatibilityDate: '2026-01-01',
   nitro: {
     experimental: { tasks: false },

@@ -11,18 +11,22 @@ const CONNECTIONS = 10
 const POOLS = 8
 const POOL_SIZE = 8
 
-interface Figure { path: string, rps: number, p99: number, non2xx: number, errors: number }
+interface Figure { path: string, rps: number, p99: number, non2xx: number, errors: number, bytes: number, gzipBytes: number }
 
 async function hammer(url: string, path: string): Promise<Figure> {
   // One request first: the page is rendered once and cached, as after the first reader.
   const first = await fetch(url + path)
   if (first.status !== 200) throw new Error(`${path} answered ${first.status}`)
-  await first.text()
-  const result = await autocannon({ url: url + path, connections: CONNECTIONS, duration: SECONDS, headers: { accept: 'text/html' } })
-  return { path, rps: result.requests.average, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors }
+  const bytes = Buffer.byteLength(await first.text())
+  const gzipped = await fetch(url + path, { headers: { 'accept-encoding': 'gzip' } })
+  const gzipBytes = Number(gzipped.headers.get('content-length') ?? 0)
+  await gzipped.arrayBuffer()
+  // As a browser asks for a page: HTML, compressed.
+  const result = await autocannon({ url: url + path, connections: CONNECTIONS, duration: SECONDS, headers: { 'accept': 'text/html', 'accept-encoding': 'gzip, deflate, br' } })
+  return { path, rps: result.requests.average, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors, bytes, gzipBytes }
 }
 
-await withBenchEnvironment({ name: 'pg-bench-pages', pgPort: 54379, appPort: 3340 }, async ({ appUrl, databaseUrl }) => {
+await withBenchEnvironment({ name: 'pg-bench-pages', pgPort: 54311, appPort: 3360 }, async ({ appUrl, databaseUrl }) => {
   process.env.NUXT_DATABASE_URL = databaseUrl
   process.env.TEST_APP_URL = appUrl
   const { makeClub } = await import('../tests/support/fixtures')
@@ -68,7 +72,7 @@ await withBenchEnvironment({ name: 'pg-bench-pages', pgPort: 54379, appPort: 334
     const figure = await hammer(appUrl, path)
     if (figure.non2xx > 0 || figure.errors > 0) throw new Error(`${path}: ${figure.non2xx} answers not 2xx, ${figure.errors} errors`)
     figures.push(figure)
-    console.log(`${path}: ${figure.rps.toFixed(1)} requests/s, p99 ${figure.p99} ms (${CONNECTIONS} connections, ${SECONDS} s)`)
+    console.log(`${path}: ${figure.rps.toFixed(1)} requests/s, p99 ${figure.p99} ms (${CONNECTIONS} connections, ${SECONDS} s; page ${Math.round(figure.bytes / 1024)} KiB, ${Math.round(figure.gzipBytes / 1024)} KiB gzip)`)
   }
   const slower = figures.reduce((a, b) => (b.rps < a.rps ? b : a))
   console.log(`page_rps=${slower.rps.toFixed(1)} p99_ms=${slower.p99}`)

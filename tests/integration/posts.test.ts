@@ -365,3 +365,39 @@ describe('the club site\'s fighter page', () => {
     expect(res.data.results.map((r: { event: { slug: string } }) => r.event.slug).sort()).toEqual([pool.fixture.eventSlug, second.eventSlug].sort())
   })
 })
+
+describe('the club site\'s page memory', () => {
+  const page = (path: string, client = new Client()) => client.request('GET', path, { headers: { accept: 'text/html' } })
+
+  async function until(check: () => Promise<boolean>, what: string, timeoutMs = 15_000) {
+    const deadline = Date.now() + timeoutMs
+    while (!(await check())) {
+      if (Date.now() > deadline) throw new Error(`${what} within ${timeoutMs} ms`)
+      await new Promise(resolve => setTimeout(resolve, 250))
+    }
+  }
+
+  it('serves a page from memory, and shows a change within seconds of it', async () => {
+    const home = `/site/${club.slug}`
+    const first = await page(home)
+    const again = await page(home)
+    expect(first.status).toBe(200)
+    expect(['miss', 'hit', 'stale']).toContain(first.headers.get('x-site-cache'))
+    expect(again.headers.get('x-site-cache')).toMatch(/^(hit|stale)$/)
+    const post = await newPost(commentator, { title: 'Fresh from the ring' })
+    const out = await publish(post)
+    // FRESH_MS (5 s) until the next check, plus one stale answer while it renders again.
+    await until(async () => (await page(home)).text.includes('Fresh from the ring'), 'the new breakdown on the home page')
+    const postPage = `/site/${club.slug}/posts/${post.slug}`
+    expect((await page(postPage)).status).toBe(200)
+    await admin.post(`${posts()}/${post.id}/status`, { expectedVersion: out.version, to: 'draft' })
+    await until(async () => (await page(postPage)).status === 404, 'the withdrawn breakdown gone')
+  }, 60_000)
+
+  it('renders afresh for signed-in members, who see their own header', async () => {
+    const res = await page(`/site/${club.slug}`, editor)
+    expect(res.status).toBe(200)
+    expect(res.headers.get('x-site-cache')).toBeNull()
+    expect(res.text).toContain('My clubs')
+  })
+})

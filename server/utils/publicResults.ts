@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm'
-import type { CardFighter, MatchCardData } from '#shared/cards/types'
+import type { CardData, CardFighter, MatchCardData } from '#shared/cards/types'
 import type { DbTx } from './events'
 import type { CardSource } from './cardData'
 
@@ -121,4 +121,26 @@ export function openGraphLinks(clubSlug: string, subject: PublicCardSubject, id:
     url: appLink(`/site/${clubSlug}/${PAGE_FOLDERS[subject]}/${id}`),
     image: appLink(publicCardPath(clubSlug, subject, id)),
   }
+}
+
+const cardNumber = (id: string) => {
+  if (!/^\d{1,10}$/.test(id)) throw notFoundError('Card')
+  return Number(id)
+}
+
+/** The data of a public page's card: an event (by slug), a match or a fighter (by id); 404 where it is not public. */
+export async function publicCardData(tx: DbTx, clubSlug: string, subject: PublicCardSubject, id: string): Promise<{ club: Club, data: CardData }> {
+  if (subject === 'event') {
+    const club = await findPublicClub(tx, clubSlug)
+    const ev = await findPublishedEvent(tx, club, id)
+    return { club, data: await eventSummaryData(tx, club, ev) }
+  }
+  if (subject === 'match') {
+    const { club, event: ev, view, row } = await findPublicMatch(tx, clubSlug, cardNumber(id))
+    // A match still to be fenced shows its event instead.
+    return { club, data: hasResult(row) ? view : await eventSummaryData(tx, club, ev) }
+  }
+  const { club, results, latest } = await findPublicFighter(tx, clubSlug, cardNumber(id))
+  const summary = results.find(r => r.summary)?.summary
+  return { club, data: summary ?? await eventSummaryData(tx, club, latest.event) }
 }

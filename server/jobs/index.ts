@@ -1,4 +1,5 @@
 import { renderCardBatch } from './cardBatch'
+import { sendMailing } from './mailing'
 
 // Every background job, registered in one place: its handler and how the queue treats it. A job
 // is enqueued from anywhere with `enqueueJob(name, data)` (server/utils/jobs.ts) and runs in a
@@ -26,6 +27,8 @@ const define = <Data>(definition: JobDefinition<Data>) => definition
 export const JOBS = {
   // The demo event's 272 cards take under a minute; ten minutes leaves room for large events.
   'cards-batch': define({ handle: renderCardBatch, expireInSeconds: 10 * 60, retryLimit: 2 }),
+  // Thousands of readers through a pool of SMTP connections take minutes; a retry skips those already mailed.
+  'mailing': define({ handle: sendMailing, expireInSeconds: 30 * 60, retryLimit: 3 }),
 }
 
 export type JobName = keyof typeof JOBS

@@ -51,3 +51,21 @@ export function mailingProgressText(m: MailingView): string {
   const base = `Sent to ${m.sent} ${m.sent === 1 ? noun : `${noun}s`}`
   return m.error ? `${base}; ${m.error}` : base
 }
+
+/** Calls `refresh` every `ms` while `active()` holds, from mount to unmount; `follow()` starts it again. */
+export function useFollow(active: () => boolean, refresh: () => Promise<unknown>, ms: number) {
+  let timer: ReturnType<typeof setTimeout> | null = null
+  function follow() {
+    if (timer) clearTimeout(timer)
+    timer = null
+    if (active()) {
+      timer = setTimeout(async () => {
+        await refresh()
+        follow()
+      }, ms)
+    }
+  }
+  onMounted(follow)
+  onBeforeUnmount(() => timer && clearTimeout(timer))
+  return follow
+}

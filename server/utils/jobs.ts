@@ -3,7 +3,7 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { sql } from 'drizzle-orm'
 import { JOBS } from '../jobs'
-import type { JobData, JobName } from '../jobs'
+import type { JobData, JobDefinition, JobName } from '../jobs'
 
 // The background job queue: pg-boss on the app's own PostgreSQL (schema `pgboss`, which it makes
 // and migrates itself). Every process can enqueue; only worker processes take jobs, and any
@@ -65,7 +65,8 @@ export async function startJobWorkers() {
     throw err
   })
   const workers = new Map<string, string>()
-  for (const [name, job] of Object.entries(JOBS) as [JobName, (typeof JOBS)[JobName]][]) {
+  // Each entry's handler takes its own kind's data, which is what its queue holds.
+  for (const [name, job] of Object.entries(JOBS) as [JobName, JobDefinition<JobData<JobName>>][]) {
     const workerId = await queue.work<JobData<typeof name>>(name, { pollingIntervalSeconds: POLLING_SECONDS, batchSize: 1, includeMetadata: true }, async ([item]) => {
       if (!item) return
       await job.handle(item.data, { id: item.id, retryCount: item.retryCount, lastAttempt: item.retryCount >= job.retryLimit })

@@ -28,13 +28,8 @@ async function assertSubscribeAllowed(event: H3Event, clubId: number) {
   const [byClub] = await db.select({ n: count() }).from(r).where(and(eq(r.ip, ip), eq(r.clubId, clubId), gt(r.requestedAt, since)))
   const [byAddress] = await db.select({ n: count() }).from(r).where(and(eq(r.ip, ip), gt(r.requestedAt, since)))
   if ((byClub?.n ?? 0) >= MAX_SUBSCRIBES_PER_CLUB || (byAddress?.n ?? 0) >= MAX_SUBSCRIBES_PER_ADDRESS) {
-    setResponseHeader(event, 'retry-after', SUBSCRIBE_WINDOW_MS / 1000)
-    throw createError({
-      statusCode: 429,
-      statusMessage: 'Too Many Requests',
-      message: `email: Too many sign-ups from your network. Try again in ${Math.round(SUBSCRIBE_WINDOW_MS / 60000)} minutes.`,
-      data: { fields: { email: 'Too many sign-ups from your network; try again later' } },
-    })
+    throw tooManyRequests(event, SUBSCRIBE_WINDOW_MS, `email: Too many sign-ups from your network. Try again in ${Math.round(SUBSCRIBE_WINDOW_MS / 60000)} minutes.`,
+      { email: 'Too many sign-ups from your network; try again later' })
   }
   await db.insert(r).values({ clubId, ip })
   await db.delete(r).where(lt(r.requestedAt, new Date(Date.now() - 4 * SUBSCRIBE_WINDOW_MS)))

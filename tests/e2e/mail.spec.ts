@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto'
 import { expect, test } from '@playwright/test'
 import pg from 'pg'
-import { DEMO_CLUB, INBOX_URL } from './support'
+import { DEMO_CLUB, INBOX_URL, demo, signIn } from './support'
 
 // A reader of the demo club's site: subscribes, confirms from the (fake) inbox, gets a breakdown
 // by mail and leaves through its unsubscribe link. The post is written straight into the
@@ -79,4 +79,26 @@ test.describe('without JavaScript', () => {
     await expect(page.getByRole('status').filter({ hasText: 'a message with a confirmation link is on its way' })).toBeVisible()
     await waitForMail(email, m => m.subject.startsWith('Confirm your subscription'))
   })
+})
+
+test('the editor sees the readers with their counts and removes one', async ({ page }) => {
+  const email = `listed-${randomBytes(4).toString('hex')}@readers.example`
+  const res = await fetch(new URL(`/api/public/subscriptions/${DEMO_CLUB}`, process.env.BASE_URL ?? 'http://127.0.0.1:3100'), {
+    method: 'POST', body: JSON.stringify({ email }), headers: { 'content-type': 'application/json' },
+  })
+  expect(res.status).toBe(202)
+  await signIn(page, demo.editor)
+  await page.goto(`/clubs/${DEMO_CLUB}/readers`)
+  await expect(page.getByRole('heading', { name: 'Readers', level: 1 })).toBeVisible()
+  const row = page.getByRole('row').filter({ hasText: email })
+  await expect(row).toContainText('Waiting for confirmation')
+  const pending = Number(await page.getByTestId('count-pending').textContent())
+  expect(pending).toBeGreaterThanOrEqual(1)
+
+  await row.getByRole('button', { name: `Remove ${email}` }).click()
+  const dialog = page.getByRole('dialog', { name: 'Remove this reader?' })
+  await dialog.getByRole('button', { name: 'Remove' }).click()
+  await expect(page.getByText(`${email} was removed and gets no more mail.`)).toBeVisible()
+  await expect(page.getByRole('row').filter({ hasText: email })).toHaveCount(0)
+  await expect(page.getByTestId('count-pending')).toHaveText(String(pending - 1))
 })

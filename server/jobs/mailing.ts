@@ -25,7 +25,7 @@ export async function sendMailing(data: { mailingId: number }, job: JobRun) {
     await db.update(m).set({
       status: 'done',
       finishedAt: new Date(),
-      error: failures > 0 ? `${failures} ${failures === 1 ? 'message' : 'messages'} could not be sent` : null,
+      ...(failures > 0 ? { error: `${failures} ${failures === 1 ? 'message' : 'messages'} could not be sent` } : {}),
     }).where(eq(m.id, mailing.id))
   }
   catch (err) {

@@ -102,3 +102,32 @@ test('the editor sees the readers with their counts and removes one', async ({ p
   await expect(page.getByRole('row').filter({ hasText: email })).toHaveCount(0)
   await expect(page.getByTestId('count-pending')).toHaveText(String(pending - 1))
 })
+
+test('the organizer sends the fighters their result cards and follows the progress', async ({ page }) => {
+  test.setTimeout(90_000)
+  const db = new pg.Client({ connectionString: DATABASE_URL })
+  await db.connect()
+  const { rows: [demoTournament] } = await db.query<{ id: number, eventId: number }>(
+    `select t.id, t.event_id as "eventId" from tournaments t join events e on e.id = t.event_id join clubs c on c.id = e.club_id
+     where c.slug = $1 and e.slug = 'wrenmouth-harvest-open' and t.name ilike 'sword%'`, [DEMO_CLUB])
+  // Two of the demo's invented fighters give an address for this test.
+  const { rows: picked } = await db.query<{ id: number }>(
+    'select f.id from fighters f join entries en on en.fighter_id = f.id where en.tournament_id = $1 and f.email is null order by f.id limit 2', [demoTournament!.id])
+  const addresses = picked.map(() => `fighter-${randomBytes(4).toString('hex')}@fighters.example`)
+  try {
+    for (const [i, f] of picked.entries()) await db.query('update fighters set email = $1 where id = $2', [addresses[i], f.id])
+    await signIn(page, demo.organizer)
+    await page.goto(`/clubs/${DEMO_CLUB}/events/${demoTournament!.eventId}/tournaments/${demoTournament!.id}`)
+    const panel = page.getByRole('region', { name: 'Result cards by e-mail' })
+    await expect(panel).toContainText('2 fighters have an e-mail address')
+    await panel.getByRole('button', { name: 'Send result cards to fighters' }).click()
+    await expect(panel.getByRole('progressbar')).toHaveAttribute('aria-valuetext', 'Sent to 2 fighters', { timeout: 30_000 })
+    await expect(panel.getByRole('button', { name: 'Send to fighters not mailed yet' })).toBeEnabled()
+    for (const address of addresses) await waitForMail(address, m => m.subject.startsWith('Your result card'))
+  }
+  finally {
+    await db.query('delete from mailings where tournament_id = $1', [demoTournament!.id])
+    await db.query('update fighters set email = null where id = any($1)', [picked.map(f => f.id)])
+    await db.end()
+  }
+})

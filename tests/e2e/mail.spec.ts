@@ -58,6 +58,12 @@ test('a reader subscribes on the club site, confirms from the inbox, gets a brea
     await expect(page.getByRole('status').filter({ hasText: 'You are unsubscribed.' })).toContainText(email)
     const { rows } = await db.query('select status from subscribers where email = $1', [email])
     expect(rows).toEqual([{ status: 'unsubscribed' }])
+
+    // The club's editor sees the mailing of that breakdown with its progress.
+    await signIn(page, demo.editor)
+    await page.goto(`/clubs/${DEMO_CLUB}/readers`)
+    const mailing = page.getByRole('listitem').filter({ hasText: title })
+    await expect(mailing.getByRole('progressbar')).toHaveAttribute('aria-valuetext', /^Sent to \d+ readers?$/)
   }
   finally {
     await db.query('delete from posts where slug = $1', [slug])

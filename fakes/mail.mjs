@@ -40,6 +40,15 @@ function toMessage(parsed, envelope) {
     date: new Date().toISOString(),
     text: parsed.text ?? '',
     html: parsed.html || null,
+    // Header lines as sent (folded lines joined), the first of each name: lower-case names.
+    headers: Object.fromEntries(parsed.headerLines.toReversed().map(h => [h.key, h.line.slice(h.line.indexOf(':') + 1).replace(/\r?\n[ \t]+/g, ' ').trim()])),
+    attachments: (parsed.attachments ?? []).map(a => ({
+      filename: a.filename ?? null,
+      contentType: a.contentType,
+      contentId: a.contentId ?? null,
+      size: a.size,
+      content: a.content.toString('base64'),
+    })),
   }
 }
 

@@ -100,6 +100,8 @@ function testConfiguration(databaseUrl) {
     NUXT_DATABASE_URL: databaseUrl,
     NUXT_SESSION_PASSWORD: randomSessionPassword(),
     NUXT_APP_URL: appUrl,
+    // The tests wait for posts to be mailed: look every second rather than every 15.
+    NUXT_ANNOUNCE_SECONDS: '1',
     NUXT_S3_ENDPOINT: s3Url,
     NUXT_S3_REGION: 'us-east-1',
     NUXT_S3_BUCKET: 'unscathed',

@@ -1,6 +1,7 @@
 import { renderCardBatch } from './cardBatch'
 import { cutClip } from './footageClip'
 import { probeRecording } from './footageProbe'
+import { sendMailing } from './mailing'
 
 // Every background job, registered in one place: its handler and how the queue treats it. A job
 // is enqueued from anywhere with `enqueueJob(name, data)` (server/utils/jobs.ts) and runs in a
@@ -32,6 +33,8 @@ export const JOBS = {
   'footage-probe': define({ handle: probeRecording, expireInSeconds: 5 * 60, retryLimit: 2 }),
   // A 30-minute clip re-encoded exactly takes a few minutes on two cores.
   'footage-clip': define({ handle: cutClip, expireInSeconds: 30 * 60, retryLimit: 1 }),
+  // Thousands of readers through a pool of SMTP connections take minutes; a retry skips those already mailed.
+  'mailing': define({ handle: sendMailing, expireInSeconds: 30 * 60, retryLimit: 3 }),
 }
 
 export type JobName = keyof typeof JOBS

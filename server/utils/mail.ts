@@ -21,11 +21,15 @@ export interface MailMessage {
   to: string
   subject: string
   text: string
+  html?: string
+  headers?: Record<string, string>
+  attachments?: { filename: string, content: Buffer | Uint8Array, contentType: string, cid?: string }[]
 }
 
 export async function sendMail(message: MailMessage) {
   const { mail } = useRuntimeConfig()
-  await useTransporter().sendMail({ from: mail.from, ...message })
+  const attachments = message.attachments?.map(a => ({ ...a, content: Buffer.from(a.content) }))
+  await useTransporter().sendMail({ from: mail.from, ...message, attachments })
 }
 
 export function appLink(path: string): string {

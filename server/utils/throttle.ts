@@ -19,13 +19,14 @@ export async function assertSignInAllowed(event: H3Event, email: string) {
   const [byAccount] = await db.select({ n: count() }).from(t).where(and(eq(t.email, email), gt(t.failedAt, since)))
   const [byAddress] = await db.select({ n: count() }).from(t).where(and(eq(t.ip, ip), gt(t.failedAt, since)))
   if ((byAccount?.n ?? 0) >= MAX_FAILURES_PER_ACCOUNT || (byAddress?.n ?? 0) >= MAX_FAILURES_PER_ADDRESS) {
-    setResponseHeader(event, 'retry-after', SIGN_IN_WINDOW_MS / 1000)
-    throw createError({
-      statusCode: 429,
-      statusMessage: 'Too Many Requests',
-      message: `Too many failed sign-ins. Try again in ${Math.round(SIGN_IN_WINDOW_MS / 60000)} minutes, or reset your password.`,
-    })
+    throw tooManyRequests(event, SIGN_IN_WINDOW_MS, `Too many failed sign-ins. Try again in ${Math.round(SIGN_IN_WINDOW_MS / 60000)} minutes, or reset your password.`)
   }
+}
+
+/** A 429 that says when to come back (Retry-After, in seconds), with the fields it concerns if any. */
+export function tooManyRequests(event: H3Event, windowMs: number, message: string, fields?: Record<string, string>) {
+  setResponseHeader(event, 'retry-after', windowMs / 1000)
+  return createError({ statusCode: 429, statusMessage: 'Too Many Requests', message, ...(fields ? { data: { fields } } : {}) })
 }
 
 export async function recordSignInFailure(email: string, ip: string) {

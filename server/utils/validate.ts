@@ -51,3 +51,26 @@ export function validParams<S extends z.ZodType>(event: H3Event, schema: S): z.i
 export function validQuery<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
   return parseWith(schema, getQuery(event), 'query')
 }
+
+/** A form's body (URL-encoded or multipart), as a plain form or a mail client posts it: text fields only. */
+export async function validFormBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
+  const type = (getRequestHeader(event, 'content-type') ?? '').toLowerCase()
+  if (!type.startsWith('application/x-www-form-urlencoded') && !type.startsWith('multipart/form-data')) {
+    throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'body: send a form (application/x-www-form-urlencoded or multipart/form-data)' })
+  }
+  let form: FormData
+  try {
+    form = await readFormData(event)
+  }
+  catch {
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'body: not a valid form' })
+  }
+  const fields: Record<string, string> = {}
+  for (const [key, value] of form.entries()) if (typeof value === 'string') fields[key] ??= value
+  return parseWith(schema, fields, 'body')
+}
+
+/** A browser's form post (it wants a page back) rather than a program's request. */
+export function wantsHtml(event: H3Event): boolean {
+  return (getRequestHeader(event, 'accept') ?? '').includes('text/html')
+}

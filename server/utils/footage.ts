@@ -3,7 +3,7 @@ import { and, asc, between, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { deriveMatch } from '#shared/rules'
 import { idParamSchema } from '#shared/schemas/club'
-import { DEFAULT_MARK_KINDS, entryMark, partCount, positionInRecording, suggestWindows } from '#shared/footage'
+import { DESK_MARK_KINDS, entryMark, partCount, positionInRecording, suggestWindows } from '#shared/footage'
 import type { RingMatch, SyncMark } from '#shared/footage'
 import type { DbTx } from './events'
 
@@ -149,11 +149,16 @@ export async function recordingMarks(db: DbTx, rec: Recording): Promise<RingMatc
   return out.sort((a, b) => a.marks[0]!.atMs - b.marks[0]!.atMs)
 }
 
-/** The club's kinds of mark by lower-cased name, with hit, afterblow and double made if missing. */
+/**
+ * The club's kinds of mark by lower-cased name: the club's default list when it has none yet, and
+ * hit, afterblow and double made if missing.
+ */
 export async function defaultMarkKinds(tx: DbTx, clubId: number): Promise<Map<string, number>> {
   const k = schema.markKinds
+  const existing = await clubMarkKinds(tx, clubId)
+  const last = Math.max(0, ...existing.map(kind => kind.position))
   // The unique index on (club, lower(name)) keeps a kind the club already has, in any case.
-  await tx.insert(k).values(DEFAULT_MARK_KINDS.map((name, i) => ({ clubId, name, position: i }))).onConflictDoNothing()
+  await tx.insert(k).values(DESK_MARK_KINDS.map((name, i) => ({ clubId, name, position: last + 1 + i }))).onConflictDoNothing()
   const rows = await tx.select({ id: k.id, name: k.name }).from(k).where(eq(k.clubId, clubId)).orderBy(asc(k.position))
   return new Map(rows.map(row => [row.name.toLowerCase(), row.id]))
 }

@@ -53,8 +53,8 @@ export function offsetAfterMove(offsetMs: number, fromMs: number, toMs: number):
 export const SIDE_NAMES: Record<Side, string> = { a: 'Red', b: 'Blue' }
 
 /** Names of the kinds of mark made from the desk's entries; a club that lacks them gets them. */
-export const DEFAULT_MARK_KINDS = ['hit', 'afterblow', 'double'] as const
-export type DefaultMarkKind = typeof DEFAULT_MARK_KINDS[number]
+export const DESK_MARK_KINDS = ['hit', 'afterblow', 'double'] as const
+export type DefaultMarkKind = typeof DESK_MARK_KINDS[number]
 
 /** The label of the mark an entry makes, and the kind it belongs to; null for a cancel. */
 export function entryMark(entry: MatchEntry): { label: string, kind: DefaultMarkKind | null } | null {

@@ -35,11 +35,11 @@ export async function postCardImage(db: DbTx, club: Club, post: Pick<LivePost, '
   return ev ? appLink(publicCardPath(club.slug, 'event', ev.slug)) : null
 }
 
-const feedParams = z.object({ clubSlug: slugSchema })
+const feedParams = z.object({ slug: slugSchema })
 
 /** A feed's club and its newest live breakdowns, each with its body rendered as on the site. */
 export async function feedEntries(event: H3Event) {
-  const { clubSlug } = validParams(event, feedParams)
+  const { slug: clubSlug } = validParams(event, feedParams)
   const db = useDb()
   const club = await findPublicClub(db, clubSlug)
   const posts = await livePosts(db, club.id, FEED_SIZE)

@@ -2,15 +2,15 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { z } from 'zod'
 import { slugSchema } from '#shared/schemas/club'
 
-const params = z.object({ clubSlug: slugSchema })
+const params = z.object({ slug: slugSchema })
 
 const SITEMAP_MAX = 50_000
 
 // The sitemaps.org protocol 0.9: a urlset of url/loc (absolute, XML-escaped), lastmod optional.
 export default defineEventHandler(async (event) => {
-  const { clubSlug } = validParams(event, params)
+  const { slug } = validParams(event, params)
   const db = useDb()
-  const club = await findPublicClub(db, clubSlug)
+  const club = await findPublicClub(db, slug)
   const e = schema.events
   const events = await db.select({ id: e.id, slug: e.slug, updatedAt: e.updatedAt }).from(e).where(and(eq(e.clubId, club.id), eq(e.published, true)))
   const posts = await livePosts(db, club.id, SITEMAP_MAX)

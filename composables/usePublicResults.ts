@@ -65,6 +65,22 @@ export function useOpenGraph(links: () => OpenGraphLinks | undefined, title: () 
   })
 }
 
+/**
+ * The data of a club-site page about one thing (`/api/public/<kind>/<club>/<id>`, the id from the
+ * route's `param`); a page that did not load ends in `publicPageError`.
+ */
+export async function usePublicThing<T>(kind: 'fighters' | 'matches' | 'posts', param: string, notFound: string, failed: string) {
+  const route = useRoute()
+  const slug = computed(() => String(route.params.slug ?? ''))
+  const id = computed(() => String(route.params[param] ?? ''))
+  const { data, error } = await useFetch<T>(
+    () => `/api/public/${kind}/${encodeURIComponent(slug.value)}/${encodeURIComponent(id.value)}`,
+    { key: () => `public-${kind}-${slug.value}-${id.value}` },
+  )
+  if (error.value || !data.value) publicPageError(error.value, notFound, failed)
+  return { slug, view: computed(() => data.value as T) }
+}
+
 /** Ends a club-site page that did not load: 404 for what is not published (a bad id too), else the failure. */
 export function publicPageError(error: unknown, notFound: string, failed: string): never {
   const status = apiStatus(error) ?? 500

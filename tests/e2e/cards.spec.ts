@@ -16,11 +16,19 @@ async function signInAsEditor(page: Page) {
 // Decoded with pngjs, written apart from the app's encoder (PNG: ISO/IEC 15948).
 const decode = async (path: string) => PNG.sync.read(await readFile(path))
 
+/** Other tests add events to the demo club: the studio is pointed at the demo event's finished tournament. */
+async function chooseDemoTournament(page: Page) {
+  const tournament = page.getByLabel('Tournament', { exact: true })
+  await expect(tournament).toHaveValue(/\d+/)
+  const demoGroup = tournament.locator('optgroup[label="Wrenmouth Harvest Open"]')
+  await tournament.selectOption(await demoGroup.locator('option', { hasText: 'Sword and buckler' }).getAttribute('value'))
+}
+
 test('the editor previews a card, changes its headline and size, and downloads the PNG', async ({ page }) => {
   await signInAsEditor(page)
   await page.goto(`/clubs/${DEMO_CLUB}/cards`)
   await expect(page.getByRole('heading', { name: 'Cards', level: 1 })).toBeVisible()
-  await expect(page.getByLabel('Tournament', { exact: true })).toHaveValue(/\d+/)
+  await chooseDemoTournament(page)
 
   const preview = page.getByTestId('card-preview')
   await expect(preview).toHaveAttribute('src', /\/media\/cards\/\d+\/[0-9a-f]{64}\.png/)
@@ -51,6 +59,7 @@ test('the editor exports every card of a tournament as a ZIP and watches the pro
   test.setTimeout(120_000)
   await signInAsEditor(page)
   await page.goto(`/clubs/${DEMO_CLUB}/cards`)
+  await chooseDemoTournament(page)
   const exportPanel = page.locator('section[aria-labelledby="batch-title"]')
   await expect(exportPanel).toBeVisible()
   for (const size of ['Square', 'Portrait', 'Story']) await exportPanel.getByRole('checkbox', { name: new RegExp(size) }).uncheck()

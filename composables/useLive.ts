@@ -1,4 +1,4 @@
-import { applyLive } from '#shared/live/reduce'
+import { applyLive, learnOffset } from '#shared/live/reduce'
 import type { LiveKind, LiveMessage, RingLive } from '#shared/live/types'
 
 export type LiveStatus = 'connecting' | 'live' | 'reconnecting' | 'gone'
@@ -17,6 +17,7 @@ export function useLiveStream(url: MaybeRefOrGetter<string | null>, options: { c
   const status = ref<LiveStatus>('connecting')
   // Server time minus this browser's time, in ms, from the latest message.
   const offset = ref(0)
+  let synced = false
   let source: EventSource | null = null
   let retry: ReturnType<typeof setTimeout> | null = null
   let lastId: string | null = null
@@ -28,8 +29,7 @@ export function useLiveStream(url: MaybeRefOrGetter<string | null>, options: { c
     if (event.lastEventId) lastId = event.lastEventId
     attempts = 0
     status.value = 'live'
-    const at = message.kind === 'ring' ? message.snapshot.at : message.at
-    offset.value = Date.parse(at) - Date.now()
+    syncClock(message.kind === 'ring' ? message.snapshot.at : message.at)
     const next = applyLive(rings.value.get(message.ring) ?? null, message)
     if (next && next !== rings.value.get(message.ring)) {
       const copy = new Map(rings.value)
@@ -87,7 +87,13 @@ export function useLiveStream(url: MaybeRefOrGetter<string | null>, options: { c
     })
   }
 
+  /** Learns the server's clock from a time the server stamped (see `learnOffset`). */
+  function syncClock(at: string) {
+    offset.value = learnOffset(synced ? offset.value : null, at, Date.now())
+    synced = true
+  }
+
   /** The server's time now, in ms. */
   const serverNow = () => Date.now() + offset.value
-  return { rings, status, offset, serverNow, reconnect: open }
+  return { rings, status, offset, serverNow, syncClock, reconnect: open }
 }

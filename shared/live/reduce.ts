@@ -79,3 +79,13 @@ export function liveSurvival(record: LiveRecord | undefined, match: LiveMatch | 
 export function clockElapsed(clock: { runningSince: string | null, elapsedMs: number }, now: number): number {
   return clock.elapsedMs + (clock.runningSince === null ? 0 : Math.max(0, now - Date.parse(clock.runningSince)))
 }
+
+/**
+ * The offset of the server's clock from this browser's, learnt from a time the server stamped.
+ * A stamp is never later than the server's now, and a replayed message or a stored snapshot can
+ * be minutes old, so the largest offset seen wins: an old stamp never turns the clock back.
+ */
+export function learnOffset(current: number | null, stampedAt: string, localNow: number): number {
+  const seen = Date.parse(stampedAt) - localNow
+  return current === null || seen > current ? seen : current
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { WINNER_BOARD_MS, autoBoard, boardOnAir } from '../../../shared/live/reduce'
+import { WINNER_BOARD_MS, autoBoard, boardOnAir, learnOffset } from '../../../shared/live/reduce'
 import { boutLabel, boutMarks, clockShown, liveNeed, marksText, needText, roundPercent, stageLabel } from '../../../shared/live/format'
 import type { LiveCard, LiveMatch, LiveRecord, RingLive } from '../../../shared/live/types'
 
@@ -109,5 +109,19 @@ describe('what the boards write', () => {
     expect(roundPercent(null)).toBe('–')
     expect(stageLabel(card)).toBe('Pool 2')
     expect(stageLabel({ stage: 'final', poolNumber: null, roundName: 'Semifinal' })).toBe('Semifinal')
+  })
+})
+
+describe('the server clock a browser learns from the stream', () => {
+  const local = Date.parse('2026-10-10T12:00:10.000Z')
+  it('takes the first stamp as it is, even one behind this browser', () => {
+    expect(learnOffset(null, '2026-10-10T12:00:08.000Z', local)).toBe(-2000)
+  })
+  it('keeps a fresher stamp and ignores a stored snapshot made minutes ago', () => {
+    const fromReplay = learnOffset(null, '2026-10-10T11:56:10.000Z', local)
+    expect(fromReplay).toBe(-240_000)
+    const fresh = learnOffset(fromReplay, '2026-10-10T12:00:10.500Z', local)
+    expect(fresh).toBe(500)
+    expect(learnOffset(fresh, '2026-10-10T11:59:00.000Z', local)).toBe(500)
   })
 })

@@ -17,5 +17,5 @@ export default defineEventHandler(async (event) => {
       overlay: seesTokens ? { path: overlayPath(state.overlayToken), rotatedAt: state.tokenRotatedAt } : null,
     })
   }
-  return { event: { id: row.id, name: row.name, rings: row.rings }, rings }
+  return { event: { id: row.id, name: row.name, rings: row.rings }, rings, at: new Date().toISOString() }
 })

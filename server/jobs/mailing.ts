@@ -68,11 +68,11 @@ async function sendPost(mailing: Mailing, club: Club): Promise<number> {
         `Unsubscribe: ${unsubscribe}`,
       ].join('\n'),
       html: mailHtml(post.title, [
-        `<p style="text-transform: uppercase; letter-spacing: 0.1em; font-size: 0.8rem">${escapeHtml(club.name)}: a new breakdown</p>`,
-        `<h1 style="font-size: 1.5rem"><a href="${escapeHtml(link)}">${escapeHtml(post.title)}</a></h1>`,
-        ...(post.summary ? [`<p>${escapeHtml(post.summary)}</p>`] : []),
-        `<p><a href="${escapeHtml(link)}">Read it and watch the clips</a></p>`,
-        `<hr><p style="font-size: 0.85rem">You get this because you subscribed to the breakdowns of ${escapeHtml(club.name)}. <a href="${escapeHtml(unsubscribe)}">Unsubscribe</a></p>`,
+        `<p style="text-transform: uppercase; letter-spacing: 0.1em; font-size: 0.8rem">${escapeMarkup(club.name)}: a new breakdown</p>`,
+        `<h1 style="font-size: 1.5rem"><a href="${escapeMarkup(link)}">${escapeMarkup(post.title)}</a></h1>`,
+        ...(post.summary ? [`<p>${escapeMarkup(post.summary)}</p>`] : []),
+        `<p><a href="${escapeMarkup(link)}">Read it and watch the clips</a></p>`,
+        `<hr><p style="font-size: 0.85rem">You get this because you subscribed to the breakdowns of ${escapeMarkup(club.name)}. <a href="${escapeMarkup(unsubscribe)}">Unsubscribe</a></p>`,
       ]),
       // RFC 8058: a mail client may offer one-click unsubscribing by POSTing to this address.
       headers: {
@@ -118,12 +118,12 @@ async function sendCards(mailing: Mailing, club: Club): Promise<number> {
         `— ${club.name}`,
       ].join('\n'),
       html: mailHtml(`Your result card: ${tournament.name}`, [
-        `<p>Hello ${escapeHtml(name)},</p>`,
-        `<p>thank you for fencing in ${escapeHtml(tournament.name)} at ${escapeHtml(event.name)}. Your pool summary is attached as a picture (1080 × 1080) to keep or share.</p>`,
-        `<p><img src="cid:result-card" alt="${escapeHtml(alt)}" width="540" height="540"></p>`,
-        `<p>What the card shows: ${escapeHtml(alt)}</p>`,
-        ...(eventLink ? [`<p><a href="${escapeHtml(eventLink)}">All results</a></p>`] : []),
-        `<p>— ${escapeHtml(club.name)}</p>`,
+        `<p>Hello ${escapeMarkup(name)},</p>`,
+        `<p>thank you for fencing in ${escapeMarkup(tournament.name)} at ${escapeMarkup(event.name)}. Your pool summary is attached as a picture (1080 × 1080) to keep or share.</p>`,
+        `<p><img src="cid:result-card" alt="${escapeMarkup(alt)}" width="540" height="540"></p>`,
+        `<p>What the card shows: ${escapeMarkup(alt)}</p>`,
+        ...(eventLink ? [`<p><a href="${escapeMarkup(eventLink)}">All results</a></p>`] : []),
+        `<p>— ${escapeMarkup(club.name)}</p>`,
       ]),
       attachments: [{ filename: 'result-card.png', content: card.png!, contentType: 'image/png', cid: 'result-card' }],
     }

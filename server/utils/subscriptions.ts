@@ -82,8 +82,8 @@ async function sendConfirmation(club: Club, to: string, token: string) {
       `The link works for ${days} days. If you did not ask, ignore this message: nothing will be sent.`,
     ].join('\n'),
     html: mailHtml(club.name, [
-      `<p>Someone, probably you, asked to get the breakdowns of ${escapeHtml(club.name)} by e-mail.</p>`,
-      `<p><a href="${escapeHtml(link)}">Confirm my subscription</a></p>`,
+      `<p>Someone, probably you, asked to get the breakdowns of ${escapeMarkup(club.name)} by e-mail.</p>`,
+      `<p><a href="${escapeMarkup(link)}">Confirm my subscription</a></p>`,
       `<p>The link works for ${days} days. If you did not ask, ignore this message: nothing will be sent.</p>`,
     ]),
   })
@@ -115,12 +115,8 @@ export function unsubscribeLink(club: Pick<Club, 'slug'>, token: string): string
   return appLink(`/site/${club.slug}/unsubscribe/${token}`)
 }
 
-export function escapeHtml(text: string): string {
-  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;')
-}
-
 /** A plain HTML mail around paragraphs that are already escaped. */
 export function mailHtml(title: string, paragraphs: string[]): string {
-  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(title)}</title></head>`
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeMarkup(title)}</title></head>`
     + `<body style="font-family: Georgia, serif; line-height: 1.5; color: #1d2129; max-width: 36rem">${paragraphs.join('\n')}</body></html>`
 }

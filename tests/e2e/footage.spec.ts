@@ -9,10 +9,6 @@ import { DEMO_CLUB, demo } from './support'
 
 const DEMO_EVENT = 'Wrenmouth Harvest Open'
 
-test.afterAll(async () => {
-  await pool.end()
-})
-
 test('a commentator uploads through an interruption and a reload, syncs the marks and cuts a match with its poster', async ({ page }) => {
   test.setTimeout(180_000)
   // The demo desk's first entry in ring 1 of the demo event; the camera started 3 s before it.

@@ -3,7 +3,7 @@ import type { Page } from '@playwright/test'
 import { and, eq } from 'drizzle-orm'
 import { makeClip } from '../support/clips'
 import type { TestClip } from '../support/clips'
-import { db, makeClub, PASSWORD, pool, schema } from '../support/fixtures'
+import { db, makeClub, PASSWORD, schema } from '../support/fixtures'
 import { DEMO_CLUB, demo, signIn } from './support'
 
 // Clips are made in the demo club, on its published demo event, the way the footage pipeline
@@ -17,7 +17,6 @@ test.beforeAll(async () => {
   const [event] = await db.select().from(schema.events).where(and(eq(schema.events.clubId, clubId), eq(schema.events.slug, 'wrenmouth-harvest-open')))
   eventId = event!.id
 })
-test.afterAll(() => pool.end())
 
 const marksOf = (clip: TestClip) => db.select().from(schema.marks).where(eq(schema.marks.clipId, clip.id)).orderBy(schema.marks.atMs)
 
